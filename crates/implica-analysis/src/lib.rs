@@ -1,0 +1,107 @@
+//! Diagnostics of Implica: the rules, their documentation, and the check of
+//! one document.
+//!
+//! ```
+//! let diags = implica_analysis::check_source("input a\noutput y\ny = a &\n");
+//! assert_eq!(diags.len(), 1);
+//! assert_eq!(diags[0].rule, "syntax-error");
+//! ```
+//!
+//! Architecture invariant: the CLI and the language server only present what
+//! this crate returns; every rule lives here, one file per rule under
+//! `rules/`, with its documentation as the file's doc comment.
+
+pub mod rules;
+
+use implica_syntax::{Span, SyntaxError};
+
+/// How serious a diagnostic is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum Severity {
+    Error,
+    Warning,
+    Info,
+    Hint,
+}
+
+impl Severity {
+    /// The lower-case name used in output formats and configuration.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Severity::Error => "error",
+            Severity::Warning => "warning",
+            Severity::Info => "info",
+            Severity::Hint => "hint",
+        }
+    }
+}
+
+/// Whether a fix can be applied without review.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Applicability {
+    /// Proven not to change any signal's function.
+    Safe,
+    /// Changes the file's meaning or intent; a person should look first.
+    NeedsReview,
+}
+
+/// Replace the text at `span` with `new_text`.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Edit {
+    pub span: Span,
+    pub new_text: String,
+}
+
+/// A fix offered with a diagnostic.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Fix {
+    pub title: String,
+    pub applicability: Applicability,
+    pub edits: Vec<Edit>,
+}
+
+/// A place related to a diagnostic, with a note.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Related {
+    pub span: Span,
+    pub message: String,
+}
+
+/// One finding in one document.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Diagnostic {
+    /// The rule's stable kebab-case name.
+    pub rule: &'static str,
+    pub severity: Severity,
+    pub message: String,
+    pub span: Span,
+    /// How to fix it, where there is an obvious way.
+    pub help: Option<String>,
+    pub related: Vec<Related>,
+    pub fixes: Vec<Fix>,
+}
+
+/// Checks one document's text.
+pub fn check_source(src: &str) -> Vec<Diagnostic> {
+    let (_, errors) = implica_syntax::parse(src);
+    errors.into_iter().map(rules::syntax_error::diagnostic).collect()
+}
+
+/// Checks raw bytes: invalid UTF-8 is reported (with its byte offset) and
+/// the rest of the document is still checked. Returns the decoded text,
+/// whose byte offsets equal those of `bytes`, with the diagnostics.
+pub fn check_bytes(bytes: &[u8]) -> (String, Vec<Diagnostic>) {
+    let (text, encoding_error) = implica_syntax::decode(bytes);
+    let mut diags: Vec<Diagnostic> = encoding_error
+        .into_iter()
+        .map(rules::syntax_error::diagnostic)
+        .collect();
+    diags.extend(check_source(&text));
+    (text, diags)
+}
+
+impl From<SyntaxError> for Diagnostic {
+    fn from(e: SyntaxError) -> Diagnostic {
+        rules::syntax_error::diagnostic(e)
+    }
+}

@@ -1,0 +1,495 @@
+//! The statement grammar, by [chumsky].
+//!
+//! The grammar sees one statement at a time: [`crate::parser`] has already
+//! cut the token stream at statement boundaries, so a failure here never
+//! spreads to the next statement.
+
+use crate::ast::*;
+use crate::lexer::TokenKind as Tok;
+use crate::Span;
+use chumsky::input::ValueInput;
+use chumsky::prelude::*;
+
+pub(crate) type Extra<'t> = extra::Err<Rich<'t, Tok, SimpleSpan>>;
+
+fn sp(s: SimpleSpan) -> Span {
+    Span::new(s.start, s.end)
+}
+
+fn custom(s: Span, msg: impl ToString) -> Rich<'static, Tok, SimpleSpan> {
+    Rich::custom(SimpleSpan::from(s.start..s.end), msg)
+}
+
+fn is_operator_word(k: Tok) -> bool {
+    matches!(
+        k,
+        Tok::KwNot | Tok::KwAnd | Tok::KwOr | Tok::KwXor | Tok::KwNand | Tok::KwNor | Tok::KwXnor
+    )
+}
+
+fn keyword_as_name(text: &str) -> String {
+    format!(
+        "`{text}` is a keyword and cannot be used as a signal name; rename it, for example `{text}_1`"
+    )
+}
+
+/// A signal name in a declaration, a definition target, a table header or
+/// an `over` list. Keywords are accepted with an error so the tree keeps
+/// the name.
+fn decl_name<'t, I>(src: &'t str) -> impl Parser<'t, I, Name, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    any()
+        .filter(|k: &Tok| *k == Tok::Ident || (k.is_keyword() && !k.starts_statement()))
+        .validate(move |k, e, emitter| {
+            let span = sp(e.span());
+            let text = &src[span.range()];
+            if k != Tok::Ident {
+                emitter.emit(custom(span, keyword_as_name(text)));
+            }
+            Name {
+                text: text.to_string(),
+                span,
+            }
+        })
+        .labelled("a signal name")
+}
+
+/// A name in an expression: operator words are operators there.
+fn expr_name<'t, I>(src: &'t str) -> impl Parser<'t, I, Name, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    any()
+        .filter(|k: &Tok| {
+            *k == Tok::Ident || (k.is_keyword() && !k.starts_statement() && !is_operator_word(*k))
+        })
+        .validate(move |k, e, emitter| {
+            let span = sp(e.span());
+            let text = &src[span.range()];
+            if k != Tok::Ident {
+                emitter.emit(custom(span, keyword_as_name(text)));
+            }
+            Name {
+                text: text.to_string(),
+                span,
+            }
+        })
+}
+
+fn name_list<'t, I>(
+    src: &'t str,
+) -> impl Parser<'t, I, Vec<Name>, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    decl_name(src)
+        .separated_by(just(Tok::Comma))
+        .allow_trailing()
+        .at_least(1)
+        .collect::<Vec<_>>()
+}
+
+/// One precedence level: operands joined by the level's operators.
+fn chain<'t, I, P, O>(lower: P, ops: O) -> impl Parser<'t, I, Expr, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    P: Parser<'t, I, Expr, Extra<'t>> + Clone + 't,
+    O: Parser<'t, I, (BinOp, bool), Extra<'t>> + Clone + 't,
+{
+    let op = ops.map_with(|(op, word), e| OpToken {
+        op,
+        word,
+        span: sp(e.span()),
+    });
+    lower
+        .clone()
+        .then(op.then(lower).repeated().collect::<Vec<_>>())
+        .validate(|(first, rest), e, emitter| {
+            if rest.is_empty() {
+                return first;
+            }
+            if rest.len() > 1 {
+                if let Some(bad) = rest.iter().find(|(o, _)| !o.op.chains()) {
+                    let name = bad.0.op.spelling(true);
+                    emitter.emit(custom(
+                        bad.0.span,
+                        format!(
+                            "`{name}` cannot be chained with another operator of the same level: \
+                             `a {name} b {name} c` is ambiguous; add parentheses, for example `(a {name} b) {name} c`"
+                        ),
+                    ));
+                }
+            }
+            let mut operands = Vec::with_capacity(rest.len() + 1);
+            let mut ops = Vec::with_capacity(rest.len());
+            operands.push(first);
+            for (o, x) in rest {
+                ops.push(o);
+                operands.push(x);
+            }
+            Expr {
+                kind: ExprKind::Chain { operands, ops },
+                span: sp(e.span()),
+            }
+        })
+        .boxed()
+}
+
+/// Expressions, by precedence (tightest first): `!`/`not`; `&`/`and`/`nand`;
+/// `^`/`xor`/`xnor`; `|`/`or`/`nor`; `==`/`!=`; `=>`.
+pub(crate) fn expr<'t, I>(src: &'t str) -> impl Parser<'t, I, Expr, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    recursive(move |expr| {
+        let constant = just(Tok::Number).validate(move |_, e, emitter| {
+            let span = sp(e.span());
+            match &src[span.range()] {
+                "0" => Expr {
+                    kind: ExprKind::Const(false),
+                    span,
+                },
+                "1" => Expr {
+                    kind: ExprKind::Const(true),
+                    span,
+                },
+                text => {
+                    emitter.emit(custom(
+                        span,
+                        format!("`{text}` is not a value: the only constants are `0` and `1`"),
+                    ));
+                    Expr {
+                        kind: ExprKind::Error,
+                        span,
+                    }
+                }
+            }
+        });
+        let paren = expr
+            .delimited_by(just(Tok::LParen), just(Tok::RParen))
+            .map_with(|inner: Expr, e| Expr {
+                kind: ExprKind::Paren(Box::new(inner)),
+                span: sp(e.span()),
+            })
+            .recover_with(via_parser(nested_delimiters(
+                Tok::LParen,
+                Tok::RParen,
+                [(Tok::LBrace, Tok::RBrace)],
+                |s| Expr {
+                    kind: ExprKind::Error,
+                    span: sp(s),
+                },
+            )));
+        let atom = choice((
+            expr_name(src).map(|n| Expr {
+                span: n.span,
+                kind: ExprKind::Name(n),
+            }),
+            constant,
+            paren,
+        ))
+        .labelled("an expression")
+        .boxed();
+        let not_op = select! { Tok::Bang => false, Tok::KwNot => true }.map_with(|w, e| (w, sp(e.span())));
+        let unary = not_op
+            .repeated()
+            .foldr(atom, |(word, op_span), operand: Expr| Expr {
+                span: op_span.to(operand.span),
+                kind: ExprKind::Not {
+                    word,
+                    operand: Box::new(operand),
+                },
+            })
+            .boxed();
+        let and = chain(
+            unary,
+            select! { Tok::Amp => (BinOp::And, false), Tok::KwAnd => (BinOp::And, true), Tok::KwNand => (BinOp::Nand, true) },
+        );
+        let xor = chain(
+            and,
+            select! { Tok::Caret => (BinOp::Xor, false), Tok::KwXor => (BinOp::Xor, true), Tok::KwXnor => (BinOp::Xnor, true) },
+        );
+        let or = chain(
+            xor,
+            select! { Tok::Pipe => (BinOp::Or, false), Tok::KwOr => (BinOp::Or, true), Tok::KwNor => (BinOp::Nor, true) },
+        );
+        let eq = chain(
+            or,
+            select! { Tok::EqEq => (BinOp::Eq, false), Tok::NotEq => (BinOp::Ne, false) },
+        );
+        // `=>` groups to the right; the chain keeps the operands flat and
+        // consumers fold from the right.
+        chain(eq, select! { Tok::Implies => (BinOp::Implies, false) })
+    })
+}
+
+fn number<'t, I>(src: &'t str) -> impl Parser<'t, I, Number, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    just(Tok::Number)
+        .validate(move |_, e, emitter| {
+            let span = sp(e.span());
+            let text = &src[span.range()];
+            let value = parse_number(text);
+            if value.is_none() {
+                emitter.emit(custom(
+                    span,
+                    format!(
+                        "`{text}` is not a row number; write it in decimal (`12`), hex (`0xC`) or binary (`0b1100`), below 2^64"
+                    ),
+                ));
+            }
+            Number {
+                text: text.to_string(),
+                value,
+                span,
+            }
+        })
+        .labelled("a row number")
+}
+
+/// The value of a row number: decimal, `0x` hex or `0b` binary.
+pub fn parse_number(text: &str) -> Option<u64> {
+    let (digits, radix) = if let Some(h) = text.strip_prefix("0x").or_else(|| text.strip_prefix("0X")) {
+        (h, 16)
+    } else if let Some(b) = text.strip_prefix("0b").or_else(|| text.strip_prefix("0B")) {
+        (b, 2)
+    } else {
+        (text, 10)
+    };
+    if digits.is_empty() || !digits.chars().all(|c| c.is_digit(radix)) {
+        return None;
+    }
+    u64::from_str_radix(digits, radix).ok()
+}
+
+fn term_list<'t, I>(src: &'t str) -> impl Parser<'t, I, TermList, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    let entry = number(src)
+        .then(just(Tok::DotDot).ignore_then(number(src)).or_not())
+        .map(|(a, b)| match b {
+            Some(b) => TermEntry::Range(a, b),
+            None => TermEntry::Single(a),
+        });
+    let part = select! { Tok::KwOn => TermKind::On, Tok::KwOff => TermKind::Off, Tok::KwDc => TermKind::Dc }
+        .then(
+            entry
+                .separated_by(just(Tok::Comma))
+                .allow_trailing()
+                .collect::<Vec<_>>()
+                .delimited_by(just(Tok::LParen), just(Tok::RParen)),
+        )
+        .map_with(|(kind, entries), e| TermPart {
+            kind,
+            entries,
+            span: sp(e.span()),
+        });
+    let over = just(Tok::KwOver)
+        .ignore_then(name_list(src).delimited_by(just(Tok::LParen), just(Tok::RParen)));
+    part.repeated()
+        .at_least(1)
+        .collect::<Vec<_>>()
+        .then(over)
+        .validate(|(parts, over), e, emitter| {
+            let span = sp(e.span());
+            let count = |k: TermKind| parts.iter().filter(|p| p.kind == k).count();
+            let (on, off, dc) = (count(TermKind::On), count(TermKind::Off), count(TermKind::Dc));
+            if on + off == 0 {
+                emitter.emit(custom(
+                    span,
+                    "a row list needs an `on(...)` list (rows that are 1) or an `off(...)` list (rows that are 0)",
+                ));
+            } else if on > 0 && off > 0 {
+                let second = parts.iter().find(|p| p.kind == TermKind::Off).map_or(span, |p| p.span);
+                emitter.emit(custom(
+                    second,
+                    "give either `on(...)` or `off(...)`, not both: the rows not listed take the other value",
+                ));
+            }
+            for (kind, n) in [(TermKind::On, on), (TermKind::Off, off), (TermKind::Dc, dc)] {
+                if n > 1 {
+                    let second = parts.iter().filter(|p| p.kind == kind).nth(1).map_or(span, |p| p.span);
+                    let kw = kind.keyword();
+                    emitter.emit(custom(
+                        second,
+                        format!("`{kw}(...)` is given more than once; merge the lists into one"),
+                    ));
+                }
+            }
+            TermList { parts, over, span }
+        })
+}
+
+/// `(a, b -> y) { rows }`, shared by `table` and `expect`.
+fn table_body<'t, I>(
+    src: &'t str,
+    allow_unlisted: bool,
+) -> impl Parser<'t, I, Table, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    let header = name_list(src)
+        .or_not()
+        .map(Option::unwrap_or_default)
+        .then_ignore(just(Tok::Arrow))
+        .then(name_list(src))
+        .delimited_by(just(Tok::LParen), just(Tok::RParen));
+    // A packed run such as `0101` lexes as one number; split it into cells.
+    let bits = just(Tok::Number).validate(move |_, e, emitter| {
+        let span = sp(e.span());
+        let text = &src[span.range()];
+        let mut cells = Vec::with_capacity(text.len());
+        for (i, c) in text.char_indices() {
+            let cell_span = Span::new(span.start + i, span.start + i + c.len_utf8());
+            let value = match c {
+                '0' => CellValue::Zero,
+                '1' => CellValue::One,
+                _ => {
+                    emitter.emit(custom(
+                        cell_span,
+                        format!("`{c}` is not a table cell: cells are `0`, `1` or `-`"),
+                    ));
+                    continue;
+                }
+            };
+            cells.push(Cell { value, span: cell_span });
+        }
+        cells
+    });
+    let dash = just(Tok::Dash).map_with(|_, e| {
+        vec![Cell {
+            value: CellValue::Dash,
+            span: sp(e.span()),
+        }]
+    });
+    let cells = bits
+        .or(dash)
+        .labelled("a table cell")
+        .repeated()
+        .collect::<Vec<Vec<Cell>>>()
+        .map(|v| v.into_iter().flatten().collect::<Vec<Cell>>());
+    let cell_row = cells
+        .clone()
+        .then_ignore(just(Tok::Arrow))
+        .then(cells.clone())
+        .map(|(inputs, outputs)| RowKind::Cells { inputs, outputs });
+    let unlisted = just(Tok::KwUnlisted)
+        .map_with(|_, e| sp(e.span()))
+        .then_ignore(just(Tok::Arrow))
+        .then(cells)
+        .validate(move |(kw, outputs), _, emitter| {
+            if !allow_unlisted {
+                emitter.emit(custom(
+                    kw,
+                    "`unlisted` rows belong in tables; test vectors check only the rows they list",
+                ));
+            }
+            RowKind::Unlisted { outputs }
+        });
+    let row = unlisted
+        .or(cell_row)
+        .map_with(|kind, e| Row {
+            kind,
+            span: sp(e.span()),
+            trivia: Trivia::default(),
+        })
+        .recover_with(via_parser(
+            none_of([Tok::RowEnd, Tok::RBrace])
+                .repeated()
+                .at_least(1)
+                .map_with(|_, e| Row {
+                    kind: RowKind::Error,
+                    span: sp(e.span()),
+                    trivia: Trivia::default(),
+                }),
+        ));
+    let row_ends = just(Tok::RowEnd).repeated();
+    let rows = row_ends
+        .clone()
+        .ignore_then(row.then_ignore(row_ends.clone()).repeated().collect::<Vec<_>>());
+    header
+        .then(rows.delimited_by(just(Tok::LBrace), just(Tok::RBrace)))
+        .map(|((inputs, outputs), rows)| Table {
+            let_span: None,
+            inputs,
+            outputs,
+            rows,
+            closing_comments: Vec::new(),
+        })
+}
+
+/// One statement, up to the end of its token chunk.
+pub(crate) fn statement<'t, I>(src: &'t str) -> impl Parser<'t, I, ItemKind, Extra<'t>> + Clone
+where
+    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+{
+    let expr = expr(src).boxed();
+    let decl = select! { Tok::KwInput => true, Tok::KwOutput => false }
+        .then(name_list(src).labelled("a signal name"))
+        .map(|(is_input, names)| {
+            if is_input {
+                ItemKind::Input(Decl { names })
+            } else {
+                ItemKind::Output(Decl { names })
+            }
+        });
+    let rhs = term_list(src)
+        .map(Rhs::Terms)
+        .or(expr.clone().map(Rhs::Expr));
+    let define = decl_name(src).then_ignore(just(Tok::Assign)).then(rhs);
+    let table = just(Tok::KwTable).ignore_then(table_body(src, true));
+    let let_stmt = just(Tok::KwLet)
+        .map_with(|_, e| sp(e.span()))
+        .then(
+            table
+                .clone()
+                .map(either::Left)
+                .or(define.clone().map(either::Right)),
+        )
+        .map(|(let_span, body)| match body {
+            either::Left(mut t) => {
+                t.let_span = Some(let_span);
+                ItemKind::Table(t)
+            }
+            either::Right((target, rhs)) => ItemKind::Define(Define {
+                let_span: Some(let_span),
+                target,
+                rhs,
+            }),
+        });
+    let define = define.map(|(target, rhs)| {
+        ItemKind::Define(Define {
+            let_span: None,
+            target,
+            rhs,
+        })
+    });
+    let never = just(Tok::KwNever).ignore_then(expr.clone()).map(ItemKind::Never);
+    let assert = just(Tok::KwAssert).ignore_then(expr).map(ItemKind::Assert);
+    let expect = just(Tok::KwExpect)
+        .ignore_then(table_body(src, false))
+        .map(ItemKind::Expect);
+    choice((
+        decl,
+        let_stmt,
+        table.map(ItemKind::Table),
+        never,
+        assert,
+        expect,
+        define,
+    ))
+    .then_ignore(end())
+}
+
+mod either {
+    pub enum Either<L, R> {
+        Left(L),
+        Right(R),
+    }
+    pub use Either::{Left, Right};
+}

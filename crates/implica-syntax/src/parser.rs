@@ -1,0 +1,529 @@
+//! The parse driver: statement splitting, nesting limit, error conversion
+//! and trivia attachment around the chumsky grammar.
+//!
+//! Architecture invariant: [`parse`] never fails and never panics. It
+//! returns a tree for any text, with an [`ItemKind::Error`] node for each
+//! statement it could not read, and every error found.
+//!
+//! Statements need no separators, yet each one starts with a token that can
+//! start nothing else: a statement keyword, or a name followed by `=`
+//! (expressions contain `==` but never a lone `=`). The splitter cuts the
+//! token stream there, so an error in one statement never hides the next,
+//! and each statement is parsed on its own.
+
+use crate::ast::*;
+use crate::grammar;
+use crate::lexer::{lex, Token, TokenKind as Tok};
+use crate::{Span, SyntaxError};
+use chumsky::error::{Rich, RichPattern, RichReason};
+use chumsky::input::Input as _;
+use chumsky::prelude::*;
+
+/// Deepest nesting of parentheses and `!` accepted in one expression.
+/// Deeper input is reported instead of parsed, so that neither the parser
+/// nor any later pass over the tree can exhaust the stack.
+pub const MAX_NESTING: usize = 128;
+
+/// Parses `src` into a syntax tree and the list of every syntax error.
+pub fn parse(src: &str) -> (SourceFile, Vec<SyntaxError>) {
+    let tokens = lex(src);
+    let split = split_statements(src, &tokens);
+    let statement = grammar::statement(src);
+    let mut errors = Vec::new();
+    let mut items = Vec::with_capacity(split.chunks.len());
+    for chunk in &split.chunks {
+        let toks = &split.significant[chunk.clone()];
+        items.push(parse_statement(src, toks, &statement, &mut errors));
+    }
+    let mut file = SourceFile {
+        items,
+        trailing_comments: Vec::new(),
+        span: Span::new(0, src.len()),
+    };
+    attach_trivia(src, &mut file, &split.comments);
+    errors.sort_by_key(|e: &SyntaxError| (e.span.start, e.span.end));
+    errors.dedup_by(|a, b| a.span == b.span && a.message == b.message);
+    (file, errors)
+}
+
+/// Replaces each byte of an invalid UTF-8 sequence by a space (keeping every
+/// byte offset) and reports the first such byte.
+pub fn decode(bytes: &[u8]) -> (String, Option<SyntaxError>) {
+    match std::str::from_utf8(bytes) {
+        Ok(s) => (s.to_string(), None),
+        Err(first) => {
+            let offset = first.valid_up_to();
+            let mut text = String::with_capacity(bytes.len());
+            let mut rest = bytes;
+            let mut count = 0usize;
+            loop {
+                match std::str::from_utf8(rest) {
+                    Ok(s) => {
+                        text.push_str(s);
+                        break;
+                    }
+                    Err(e) => {
+                        let (good, bad) = rest.split_at(e.valid_up_to());
+                        // `good` was just validated.
+                        text.push_str(std::str::from_utf8(good).unwrap_or_default());
+                        let n = e.error_len().unwrap_or(bad.len());
+                        count += n;
+                        text.extend(std::iter::repeat_n(' ', n));
+                        rest = &bad[n..];
+                    }
+                }
+            }
+            let error = SyntaxError {
+                span: Span::new(offset, offset + 1),
+                message: format!(
+                    "the file is not valid UTF-8: byte {offset} (0x{:02X}) starts an invalid sequence ({count} invalid byte{} in all)",
+                    bytes[offset],
+                    if count == 1 { "" } else { "s" }
+                ),
+                help: Some("save the file as UTF-8".to_string()),
+                related: Vec::new(),
+            };
+            (text, Some(error))
+        }
+    }
+}
+
+struct Split {
+    /// Tokens other than trivia, with [`Tok::RowEnd`] at line ends inside table bodies.
+    significant: Vec<(Tok, SimpleSpan)>,
+    /// Ranges of `significant`, one per statement.
+    chunks: Vec<std::ops::Range<usize>>,
+    comments: Vec<Comment>,
+}
+
+fn split_statements(src: &str, tokens: &[Token]) -> Split {
+    let mut significant: Vec<(Tok, SimpleSpan)> = Vec::with_capacity(tokens.len() / 2 + 1);
+    let mut chunks = Vec::new();
+    let mut comments = Vec::new();
+    let mut chunk_start = 0usize;
+    // Table/expect body state of the current statement.
+    let mut awaiting_body = false;
+    let mut body_depth = 0usize;
+    let next_significant = |mut i: usize| {
+        while i < tokens.len() && tokens[i].kind.is_trivia() {
+            i += 1;
+        }
+        tokens.get(i).map(|t| t.kind)
+    };
+    for (i, tok) in tokens.iter().enumerate() {
+        match tok.kind {
+            Tok::Whitespace => continue,
+            Tok::Comment => {
+                // Trailing spaces and a carriage return are not part of the comment.
+                let text = src[tok.span.range()].trim_end();
+                comments.push(Comment {
+                    text: text.to_string(),
+                    span: Span::new(tok.span.start, tok.span.start + text.len()),
+                });
+                continue;
+            }
+            Tok::Newline => {
+                if body_depth > 0 && significant.last().is_some_and(|t| t.0 != Tok::RowEnd) {
+                    significant.push((Tok::RowEnd, (tok.span.start..tok.span.start).into()));
+                }
+                continue;
+            }
+            _ => {}
+        }
+        let prev = significant[chunk_start..].last().map(|t| t.0);
+        let starts = match tok.kind {
+            Tok::KwTable => prev != Some(Tok::KwLet),
+            k if k.starts_statement() => true,
+            k if k == Tok::Ident || k.is_keyword() => {
+                prev != Some(Tok::KwLet) && next_significant(i + 1) == Some(Tok::Assign)
+            }
+            _ => false,
+        };
+        if starts {
+            if significant.len() > chunk_start {
+                chunks.push(chunk_start..significant.len());
+            }
+            chunk_start = significant.len();
+            awaiting_body = false;
+            body_depth = 0;
+        }
+        match tok.kind {
+            Tok::KwTable | Tok::KwExpect => awaiting_body = true,
+            Tok::LBrace if awaiting_body || body_depth > 0 => {
+                awaiting_body = false;
+                body_depth += 1;
+            }
+            Tok::RBrace if body_depth > 0 => {
+                body_depth -= 1;
+                if let Some(last) = significant.last() {
+                    if last.0 == Tok::RowEnd {
+                        significant.pop();
+                    }
+                }
+            }
+            _ => {}
+        }
+        significant.push((tok.kind, (tok.span.start..tok.span.end).into()));
+    }
+    if significant.len() > chunk_start {
+        chunks.push(chunk_start..significant.len());
+    }
+    Split {
+        significant,
+        chunks,
+        comments,
+    }
+}
+
+/// Where an expression first nests deeper than [`MAX_NESTING`].
+fn too_deep(toks: &[(Tok, SimpleSpan)]) -> Option<SimpleSpan> {
+    // Open parentheses, each with the run of `!` before it.
+    let mut stack: Vec<usize> = Vec::new();
+    let mut run = 0usize;
+    let mut depth = 0usize;
+    for (kind, span) in toks {
+        match kind {
+            Tok::Bang | Tok::KwNot => {
+                run += 1;
+                depth += 1;
+            }
+            Tok::LParen => {
+                stack.push(run);
+                run = 0;
+                depth += 1;
+            }
+            Tok::RParen => {
+                depth -= run;
+                run = 0;
+                if let Some(outer) = stack.pop() {
+                    depth -= 1 + outer;
+                }
+            }
+            _ => {
+                depth -= run;
+                run = 0;
+            }
+        }
+        if depth > MAX_NESTING {
+            return Some(*span);
+        }
+    }
+    None
+}
+
+fn parse_statement<'t, P>(
+    src: &'t str,
+    toks: &'t [(Tok, SimpleSpan)],
+    statement: &P,
+    errors: &mut Vec<SyntaxError>,
+) -> Item
+where
+    P: Parser<
+            't,
+            chumsky::input::MappedInput<'t, Tok, SimpleSpan, &'t [(Tok, SimpleSpan)]>,
+            ItemKind,
+            grammar::Extra<'t>,
+        >,
+{
+    let first = toks[0];
+    let last_end = toks.iter().rev().find(|t| t.0 != Tok::RowEnd).map_or(first.1.end, |t| t.1.end);
+    let span = Span::new(first.1.start, last_end);
+    let error_item = Item {
+        kind: ItemKind::Error,
+        span,
+        trivia: Trivia::default(),
+    };
+    if !first.0.starts_statement() && !(toks.len() > 1 && toks[1].0 == Tok::Assign) {
+        errors.push(not_a_statement(src, first));
+        return error_item;
+    }
+    if let Some(at) = too_deep(toks) {
+        errors.push(SyntaxError {
+            span: Span::new(at.start, at.end),
+            message: format!(
+                "this expression nests more than {MAX_NESTING} levels of parentheses and `!`, the most Implica reads"
+            ),
+            help: Some("split it into intermediate signals with `let`".to_string()),
+            related: Vec::new(),
+        });
+        return error_item;
+    }
+    let eoi: SimpleSpan = (last_end..last_end).into();
+    let (out, errs) = statement.parse(toks.split_token_span(eoi)).into_output_errors();
+    let at_file_end = src[last_end..].trim().is_empty() || {
+        // Only comments follow.
+        src[last_end..]
+            .lines()
+            .all(|l| l.trim().is_empty() || l.trim_start().starts_with('#'))
+    };
+    for e in errs {
+        errors.push(convert_error(src, toks, &e, at_file_end));
+    }
+    match out {
+        Some(kind) => Item {
+            kind,
+            span,
+            trivia: Trivia::default(),
+        },
+        None => error_item,
+    }
+}
+
+fn not_a_statement(src: &str, (kind, span): (Tok, SimpleSpan)) -> SyntaxError {
+    let text = &src[span.start..span.end];
+    let help = match kind {
+        Tok::Ident => Some(format!(
+            "to define `{text}`, write `{text} = expression`; to use it, put it on the right of a definition"
+        )),
+        Tok::RBrace => Some("this `}` closes nothing; remove it".to_string()),
+        Tok::Foreign if text == ";" => Some("statements need no separator; remove the `;`".to_string()),
+        _ => None,
+    };
+    SyntaxError {
+        span: Span::new(span.start, span.end),
+        message: format!(
+            "expected a statement (`input`, `output`, `let`, `table`, `never`, `assert`, `expect` or `name = ...`), found {}",
+            describe_found(src, Some(kind), span)
+        ),
+        help,
+        related: Vec::new(),
+    }
+}
+
+fn describe_found(src: &str, kind: Option<Tok>, span: SimpleSpan) -> String {
+    match kind {
+        None => "the end of the statement".to_string(),
+        Some(Tok::RowEnd) => "the end of the row".to_string(),
+        Some(k) if k.is_keyword() => format!("the keyword `{}`", &src[span.start..span.end]),
+        Some(Tok::Ident) => format!("`{}`", &src[span.start..span.end]),
+        Some(Tok::Error) => {
+            let text = &src[span.start..span.end];
+            let shown: String = text.chars().take(8).collect();
+            if text.chars().count() > 8 {
+                format!("the unexpected characters `{shown}…`")
+            } else {
+                format!("the unexpected character{} `{shown}`", if text.chars().count() > 1 { "s" } else { "" })
+            }
+        }
+        Some(_) => format!("`{}`", &src[span.start..span.end]),
+    }
+}
+
+fn is_binary_op(k: Tok) -> bool {
+    matches!(
+        k,
+        Tok::Amp
+            | Tok::KwAnd
+            | Tok::KwNand
+            | Tok::Caret
+            | Tok::KwXor
+            | Tok::KwXnor
+            | Tok::Pipe
+            | Tok::KwOr
+            | Tok::KwNor
+            | Tok::EqEq
+            | Tok::NotEq
+            | Tok::Implies
+    )
+}
+
+fn foreign_help(text: &str) -> Option<&'static str> {
+    Some(match text {
+        "&&" => "`&&` is not an Implica operator; write `&` (or `and`) for AND",
+        "||" => "`||` is not an Implica operator; write `|` (or `or`) for OR",
+        "~" => "`~` is not an Implica operator; write `!` (or `not`) for NOT",
+        "+" => "`+` is not an Implica operator; write `|` (or `or`) for OR",
+        "*" => "`*` is not an Implica operator; write `&` (or `and`) for AND",
+        "'" => "a postfix `'` is not NOT in Implica; write `!x` (or `not x`)",
+        ";" => "statements need no separator; remove the `;`",
+        _ => return None,
+    })
+}
+
+fn convert_error(
+    src: &str,
+    toks: &[(Tok, SimpleSpan)],
+    e: &Rich<'_, Tok, SimpleSpan>,
+    at_file_end: bool,
+) -> SyntaxError {
+    let span = *e.span();
+    let mut out = SyntaxError {
+        span: Span::new(span.start, span.end),
+        message: String::new(),
+        help: None,
+        related: Vec::new(),
+    };
+    let (expected, found) = match e.reason() {
+        RichReason::Custom(msg) => {
+            out.message = msg.clone();
+            return out;
+        }
+        RichReason::ExpectedFound { expected, found } => (expected, found.as_deref().copied()),
+    };
+    if found == Some(Tok::Foreign) {
+        if let Some(h) = foreign_help(&src[span.start..span.end]) {
+            out.message = h.to_string();
+            return out;
+        }
+    }
+    let mut words: Vec<String> = Vec::new();
+    let mut push = |w: String| {
+        if !words.contains(&w) {
+            words.push(w);
+        }
+    };
+    let wants = |k: Tok| expected.iter().any(|p| matches!(p, RichPattern::Token(t) if **t == k));
+    let wants_close_paren = wants(Tok::RParen);
+    let wants_close_brace = wants(Tok::RBrace);
+    let wants_arrow = wants(Tok::Arrow);
+    for p in expected {
+        match p {
+            RichPattern::Token(t) if is_binary_op(**t) => push("an operator".to_string()),
+            RichPattern::Token(t) if **t == Tok::RowEnd => push("the end of the row".to_string()),
+            RichPattern::Token(t) => push(t.describe().to_string()),
+            RichPattern::Label(l) => push(l.to_string()),
+            RichPattern::EndOfInput => push("the end of the statement".to_string()),
+            RichPattern::Identifier(s) => push(format!("`{s}`")),
+            RichPattern::Any => push("more input".to_string()),
+            RichPattern::SomethingElse => push("something else".to_string()),
+            _ => push("something else".to_string()),
+        }
+    }
+    let found_text = match found {
+        None if at_file_end => "the end of the file".to_string(),
+        other => describe_found(src, other, span),
+    };
+    out.message = if words.is_empty() {
+        format!("unexpected {found_text}")
+    } else {
+        format!("expected {}, found {found_text}", join_or(&words))
+    };
+    if found == Some(Tok::Error) && src[span.start..span.end].chars().any(|c| !c.is_ascii()) {
+        out.help = Some("names use ASCII letters, digits and `_` only".to_string());
+    }
+    // Point at the opening delimiter that is never closed.
+    let before = &toks[..toks.partition_point(|t| t.1.start < span.start)];
+    if wants_close_paren {
+        if let Some(open) = unclosed(before, Tok::LParen, Tok::RParen) {
+            out.help = Some("add `)` to close the `(`".to_string());
+            out.related.push((Span::new(open.start, open.end), "this `(` is not closed".to_string()));
+        }
+    }
+    if wants_close_brace && found.is_none() {
+        if let Some(open) = unclosed(before, Tok::LBrace, Tok::RBrace) {
+            out.help = Some("add `}` to close the table".to_string());
+            out.related.push((Span::new(open.start, open.end), "this `{` is not closed".to_string()));
+        }
+    }
+    if wants_arrow && out.help.is_none() {
+        out.help = Some("write a row as input cells, `->`, output cells, for example `01 -> 1`".to_string());
+    }
+    if found == Some(Tok::Assign) {
+        out.help = Some("to compare two signals, write `==`".to_string());
+    }
+    out
+}
+
+fn unclosed(toks: &[(Tok, SimpleSpan)], open: Tok, close: Tok) -> Option<SimpleSpan> {
+    let mut stack = Vec::new();
+    for (k, s) in toks {
+        if *k == open {
+            stack.push(*s);
+        } else if *k == close {
+            stack.pop();
+        }
+    }
+    stack.pop()
+}
+
+fn join_or(words: &[String]) -> String {
+    match words {
+        [] => String::new(),
+        [one] => one.clone(),
+        [init @ .., last] => format!("{} or {last}", init.join(", ")),
+    }
+}
+
+/// Whether only spaces and tabs separate `from` and `to` (no line break).
+fn same_line(src: &str, from: usize, to: usize) -> bool {
+    !src.as_bytes()[from.min(to)..to].contains(&b'\n')
+}
+
+/// Whether the line above the one holding `pos` is blank.
+fn blank_line_before(src: &str, pos: usize) -> bool {
+    let bytes = src.as_bytes();
+    let line_start = bytes[..pos].iter().rposition(|&b| b == b'\n').map_or(0, |i| i + 1);
+    if line_start == 0 {
+        return false;
+    }
+    let prev_start = bytes[..line_start - 1].iter().rposition(|&b| b == b'\n').map_or(0, |i| i + 1);
+    bytes[prev_start..line_start - 1].iter().all(|b| b.is_ascii_whitespace())
+}
+
+fn attach_trivia(src: &str, file: &mut SourceFile, comments: &[Comment]) {
+    for item in &mut file.items {
+        item.trivia.blank_before = blank_line_before(src, item.span.start);
+        if let ItemKind::Table(t) | ItemKind::Expect(t) = &mut item.kind {
+            for row in &mut t.rows {
+                row.trivia.blank_before = blank_line_before(src, row.span.start);
+            }
+        }
+    }
+    for c in comments {
+        let next = file.items.partition_point(|it| it.span.start <= c.span.start);
+        if next > 0 {
+            let prev = &mut file.items[next - 1];
+            if prev.span.end > c.span.start {
+                attach_inside(src, prev, c);
+                continue;
+            }
+            if same_line(src, prev.span.end, c.span.start) && prev.trivia.trailing.is_none() {
+                prev.trivia.trailing = Some(c.clone());
+                continue;
+            }
+        }
+        let blank = blank_line_before(src, c.span.start);
+        match file.items.get_mut(next) {
+            Some(item) => item.trivia.leading.push((blank, c.clone())),
+            None => file.trailing_comments.push((blank, c.clone())),
+        }
+    }
+}
+
+fn attach_inside(src: &str, item: &mut Item, c: &Comment) {
+    let table = match &mut item.kind {
+        ItemKind::Table(t) | ItemKind::Expect(t) => t,
+        _ => {
+            item.trivia.interior.push(c.clone());
+            return;
+        }
+    };
+    // The body starts at the `{`, which ends the header.
+    let body_start = src[item.span.start..c.span.start].find('{').map(|i| item.span.start + i);
+    let Some(body_start) = body_start else {
+        item.trivia.interior.push(c.clone());
+        return;
+    };
+    let next = table.rows.partition_point(|r| r.span.start <= c.span.start);
+    if next > 0 {
+        let prev = &mut table.rows[next - 1];
+        if prev.span.end > c.span.start {
+            item.trivia.interior.push(c.clone());
+            return;
+        }
+        if same_line(src, prev.span.end, c.span.start) && prev.trivia.trailing.is_none() {
+            prev.trivia.trailing = Some(c.clone());
+            return;
+        }
+    } else if same_line(src, body_start, c.span.start) {
+        // A comment on the line of `{` stays where it is only when the
+        // formatter keeps the statement as written.
+        item.trivia.interior.push(c.clone());
+        return;
+    }
+    let blank = blank_line_before(src, c.span.start);
+    match table.rows.get_mut(next) {
+        Some(row) => row.trivia.leading.push((blank, c.clone())),
+        None => table.closing_comments.push((blank, c.clone())),
+    }
+}

@@ -1,0 +1,109 @@
+//! Finding input files, reading them, and writing them back atomically.
+
+use std::fs;
+use std::io::{self, Read, Write};
+use std::path::{Path, PathBuf};
+
+/// An input named on the command line, after directory expansion.
+pub enum Input {
+    Stdin,
+    File(PathBuf),
+}
+
+impl Input {
+    /// The name shown in messages and output.
+    pub fn display(&self) -> String {
+        match self {
+            Input::Stdin => "<stdin>".to_string(),
+            Input::File(p) => p.display().to_string(),
+        }
+    }
+}
+
+/// Expands `paths`: `-` is standard input, a directory gives its `*.imp`
+/// files recursively (sorted), anything else is taken as a file. Problems
+/// (a missing path, an unreadable directory) are returned beside the inputs
+/// so the other paths are still processed.
+pub fn collect(paths: &[PathBuf]) -> (Vec<Input>, Vec<String>) {
+    let mut inputs = Vec::new();
+    let mut problems = Vec::new();
+    for p in paths {
+        if p.as_os_str() == "-" {
+            inputs.push(Input::Stdin);
+        } else if p.is_dir() {
+            let mut found = Vec::new();
+            walk(p, &mut found, &mut problems);
+            found.sort();
+            inputs.extend(found.into_iter().map(Input::File));
+        } else if p.exists() {
+            inputs.push(Input::File(p.clone()));
+        } else {
+            problems.push(format!("{}: no such file or directory", p.display()));
+        }
+    }
+    (inputs, problems)
+}
+
+fn walk(dir: &Path, out: &mut Vec<PathBuf>, problems: &mut Vec<String>) {
+    let entries = match fs::read_dir(dir) {
+        Ok(e) => e,
+        Err(e) => {
+            problems.push(format!("{}: cannot read directory: {e}", dir.display()));
+            return;
+        }
+    };
+    for entry in entries.flatten() {
+        let path = entry.path();
+        let Ok(kind) = entry.file_type() else { continue };
+        if kind.is_dir() {
+            walk(&path, out, problems);
+        } else if path.extension().is_some_and(|e| e == "imp") {
+            out.push(path);
+        }
+    }
+}
+
+/// Reads a file (or standard input for `-`) as bytes.
+pub fn read_input(path: &Path) -> io::Result<Vec<u8>> {
+    if path.as_os_str() == "-" {
+        let mut buf = Vec::new();
+        io::stdin().read_to_end(&mut buf)?;
+        Ok(buf)
+    } else {
+        fs::read(path)
+    }
+}
+
+/// Reads an [`Input`].
+pub fn read(input: &Input) -> io::Result<Vec<u8>> {
+    match input {
+        Input::Stdin => read_input(Path::new("-")),
+        Input::File(p) => fs::read(p),
+    }
+}
+
+/// Replaces the contents of `path` with `contents`, atomically: the text
+/// goes to a temporary file in the same directory, is flushed to disk, and
+/// is renamed over the original, whose permissions it keeps. If the file no
+/// longer holds `expected` (someone changed it meanwhile), nothing is written.
+pub fn write_atomic(path: &Path, expected: &[u8], contents: &[u8]) -> io::Result<()> {
+    let dir = match path.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d,
+        _ => Path::new("."),
+    };
+    let perms = fs::metadata(path)?.permissions();
+    let mut tmp = tempfile::Builder::new()
+        .prefix(".implica-")
+        .suffix(".tmp")
+        .tempfile_in(dir)?;
+    tmp.write_all(contents)?;
+    tmp.as_file().sync_all()?;
+    fs::set_permissions(tmp.path(), perms)?;
+    if fs::read(path)? != expected {
+        return Err(io::Error::other(
+            "the file changed on disk while implica was running; it was left as it is",
+        ));
+    }
+    tmp.persist(path).map_err(|e| e.error)?;
+    Ok(())
+}
