@@ -84,7 +84,10 @@ pub struct Diagnostic {
 /// Checks one document's text.
 pub fn check_source(src: &str) -> Vec<Diagnostic> {
     let (_, errors) = implica_syntax::parse(src);
-    errors.into_iter().map(rules::syntax_error::diagnostic).collect()
+    errors
+        .into_iter()
+        .map(rules::syntax_error::diagnostic)
+        .collect()
 }
 
 /// Checks raw bytes: invalid UTF-8 is reported (with its byte offset) and

@@ -164,6 +164,8 @@ pub struct Table {
     pub inputs: Vec<Name>,
     pub outputs: Vec<Name>,
     pub rows: Vec<Row>,
+    /// A comment on the line of the opening `{`.
+    pub open_comment: Option<Comment>,
     /// Comments after the last row, before the closing `}`.
     pub closing_comments: Vec<(bool, Comment)>,
 }
@@ -180,7 +182,10 @@ pub struct Row {
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub enum RowKind {
     /// `01- -> 10`
-    Cells { inputs: Vec<Cell>, outputs: Vec<Cell> },
+    Cells {
+        inputs: Vec<Cell>,
+        outputs: Vec<Cell>,
+    },
     /// `unlisted -> 0-`: the value of every row not listed.
     Unlisted { outputs: Vec<Cell> },
     /// A row that could not be parsed.
@@ -228,14 +233,20 @@ pub enum ExprKind {
     /// `0` or `1`.
     Const(bool),
     /// `!x` or `not x`; `word` is true for `not`.
-    Not { word: bool, operand: Box<Expr> },
+    Not {
+        word: bool,
+        operand: Box<Expr>,
+    },
     /// `( ... )`, kept so that the formatter and fixes preserve grouping.
     Paren(Box<Expr>),
     /// Operands joined by operators of one precedence level, as written:
     /// `ops.len() == operands.len() - 1`. A chain groups to the left,
     /// except `=>`, which groups to the right. Flat chains keep the tree
     /// shallow however long the expression is.
-    Chain { operands: Vec<Expr>, ops: Vec<OpToken> },
+    Chain {
+        operands: Vec<Expr>,
+        ops: Vec<OpToken>,
+    },
     /// An expression that could not be parsed; its error is in the error list.
     Error,
 }

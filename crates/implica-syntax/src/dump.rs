@@ -17,7 +17,11 @@ pub fn dump_structure(file: &SourceFile) -> String {
 }
 
 fn render(file: &SourceFile, spans: bool, blanks: bool) -> String {
-    let mut d = Dumper { out: String::new(), spans, blanks };
+    let mut d = Dumper {
+        out: String::new(),
+        spans,
+        blanks,
+    };
     for item in &file.items {
         d.item(item, 0);
     }
@@ -47,8 +51,16 @@ impl Dumper {
 
     fn trivia(&mut self, t: &Trivia, depth: usize) {
         for (blank, c) in &t.leading {
-            let b = if *blank && self.blanks { " (after blank)" } else { "" };
-            self.line(depth, &format!("leading comment{b} {:?}", c.text), Some(c.span));
+            let b = if *blank && self.blanks {
+                " (after blank)"
+            } else {
+                ""
+            };
+            self.line(
+                depth,
+                &format!("leading comment{b} {:?}", c.text),
+                Some(c.span),
+            );
         }
         if t.blank_before && self.blanks {
             self.line(depth, "blank line", None);
@@ -57,15 +69,27 @@ impl Dumper {
 
     fn trailing(&mut self, t: &Trivia, depth: usize) {
         for c in &t.interior {
-            self.line(depth + 1, &format!("interior comment {:?}", c.text), Some(c.span));
+            self.line(
+                depth + 1,
+                &format!("interior comment {:?}", c.text),
+                Some(c.span),
+            );
         }
         if let Some(c) = &t.trailing {
-            self.line(depth + 1, &format!("trailing comment {:?}", c.text), Some(c.span));
+            self.line(
+                depth + 1,
+                &format!("trailing comment {:?}", c.text),
+                Some(c.span),
+            );
         }
     }
 
     fn names(&self, names: &[Name]) -> String {
-        names.iter().map(|n| n.text.as_str()).collect::<Vec<_>>().join(", ")
+        names
+            .iter()
+            .map(|n| n.text.as_str())
+            .collect::<Vec<_>>()
+            .join(", ")
     }
 
     fn item(&mut self, item: &Item, depth: usize) {
@@ -89,7 +113,11 @@ impl Dumper {
                                     TermEntry::Range(a, b) => format!("{}..{}", a.text, b.text),
                                 })
                                 .collect();
-                            self.line(depth + 1, &format!("{} [{}]", p.kind.keyword(), entries.join(", ")), Some(p.span));
+                            self.line(
+                                depth + 1,
+                                &format!("{} [{}]", p.kind.keyword(), entries.join(", ")),
+                                Some(p.span),
+                            );
                         }
                         self.line(depth + 1, &format!("over {}", self.names(&t.over)), None);
                     }
@@ -101,20 +129,44 @@ impl Dumper {
                     (_, true) => "let table",
                     _ => "table",
                 };
-                self.line(depth, &format!("{kw} ({} -> {})", self.names(&t.inputs), self.names(&t.outputs)), s);
+                self.line(
+                    depth,
+                    &format!(
+                        "{kw} ({} -> {})",
+                        self.names(&t.inputs),
+                        self.names(&t.outputs)
+                    ),
+                    s,
+                );
+                if let Some(c) = &t.open_comment {
+                    self.line(
+                        depth + 1,
+                        &format!("open comment {:?}", c.text),
+                        Some(c.span),
+                    );
+                }
                 for row in &t.rows {
                     self.trivia(&row.trivia, depth + 1);
-                    let cells = |c: &[Cell]| c.iter().map(|c| c.value.as_char()).collect::<String>();
+                    let cells =
+                        |c: &[Cell]| c.iter().map(|c| c.value.as_char()).collect::<String>();
                     let text = match &row.kind {
-                        RowKind::Cells { inputs, outputs } => format!("row {} -> {}", cells(inputs), cells(outputs)),
-                        RowKind::Unlisted { outputs } => format!("row unlisted -> {}", cells(outputs)),
+                        RowKind::Cells { inputs, outputs } => {
+                            format!("row {} -> {}", cells(inputs), cells(outputs))
+                        }
+                        RowKind::Unlisted { outputs } => {
+                            format!("row unlisted -> {}", cells(outputs))
+                        }
                         RowKind::Error => "row error".to_string(),
                     };
                     self.line(depth + 1, &text, Some(row.span));
                     self.trailing(&row.trivia, depth + 1);
                 }
                 for (_, c) in &t.closing_comments {
-                    self.line(depth + 1, &format!("closing comment {:?}", c.text), Some(c.span));
+                    self.line(
+                        depth + 1,
+                        &format!("closing comment {:?}", c.text),
+                        Some(c.span),
+                    );
                 }
             }
             ItemKind::Never(e) => {

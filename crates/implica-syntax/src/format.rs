@@ -13,7 +13,7 @@
 //! exactly as written; the rest of the file is still formatted.
 
 use crate::ast::*;
-use crate::{parse, SyntaxError};
+use crate::{SyntaxError, parse};
 
 /// Lines longer than this are broken where the layout allows.
 pub const MAX_WIDTH: usize = 100;
@@ -94,7 +94,9 @@ fn blocks(items: &[Item]) -> Vec<&[Item]> {
 }
 
 fn kept_as_written(item: &Item) -> bool {
-    matches!(item.kind, ItemKind::Error) || !item.trivia.interior.is_empty() || has_error_nodes(item)
+    matches!(item.kind, ItemKind::Error)
+        || !item.trivia.interior.is_empty()
+        || has_error_nodes(item)
 }
 
 fn has_error_nodes(item: &Item) -> bool {
@@ -165,7 +167,11 @@ fn format_block(src: &str, block: &[Item], out: &mut Out) {
         if let Some(c) = &item.trivia.trailing {
             let single = lines.len() == 1;
             if let Some(last) = lines.last_mut() {
-                let col = if single { comment_col } else { last.chars().count() + 2 };
+                let col = if single {
+                    comment_col
+                } else {
+                    last.chars().count() + 2
+                };
                 pad_to(last, col);
                 last.push_str(&c.text);
             }
@@ -183,7 +189,10 @@ fn pad_to(s: &mut String, col: usize) {
 
 fn render_item(src: &str, item: &Item, decl_width: usize, head_width: usize) -> Vec<String> {
     if kept_as_written(item) {
-        return src[item.span.range()].lines().map(|l| l.trim_end().to_string()).collect();
+        return src[item.span.range()]
+            .lines()
+            .map(|l| l.trim_end().to_string())
+            .collect();
     }
     match &item.kind {
         ItemKind::Input(d) => render_decl("input", &d.names, decl_width),
@@ -200,7 +209,11 @@ fn render_item(src: &str, item: &Item, decl_width: usize, head_width: usize) -> 
         ItemKind::Never(e) => render_long("never ".to_string(), e),
         ItemKind::Assert(e) => render_long("assert ".to_string(), e),
         ItemKind::Table(t) => {
-            let kw = if t.let_span.is_some() { "let table" } else { "table" };
+            let kw = if t.let_span.is_some() {
+                "let table"
+            } else {
+                "table"
+            };
             render_table(kw, t)
         }
         ItemKind::Expect(t) => render_table("expect", t),
@@ -209,7 +222,11 @@ fn render_item(src: &str, item: &Item, decl_width: usize, head_width: usize) -> 
 }
 
 fn names(names: &[Name]) -> String {
-    names.iter().map(|n| n.text.as_str()).collect::<Vec<_>>().join(", ")
+    names
+        .iter()
+        .map(|n| n.text.as_str())
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 fn render_decl(kw: &str, list: &[Name], width: usize) -> Vec<String> {
@@ -220,7 +237,11 @@ fn render_decl(kw: &str, list: &[Name], width: usize) -> Vec<String> {
     let mut lines = vec![head];
     for (i, n) in list.iter().enumerate() {
         let last = i + 1 == list.len();
-        let piece = if last { n.text.clone() } else { format!("{},", n.text) };
+        let piece = if last {
+            n.text.clone()
+        } else {
+            format!("{},", n.text)
+        };
         let cur = lines.last_mut().expect("lines starts non-empty");
         let fresh = cur.len() == indent;
         if !fresh && cur.len() + 1 + piece.len() > MAX_WIDTH {
@@ -248,7 +269,12 @@ fn render_long(head: String, e: &Expr) -> Vec<String> {
     let op_col = head.chars().count().saturating_sub(2);
     let mut lines = vec![format!("{head}{}", expr(&operands[0]))];
     for (op, x) in ops.iter().zip(&operands[1..]) {
-        lines.push(format!("{}{} {}", " ".repeat(op_col), op.op.spelling(op.word), expr(x)));
+        lines.push(format!(
+            "{}{} {}",
+            " ".repeat(op_col),
+            op.op.spelling(op.word),
+            expr(x)
+        ));
     }
     lines
 }
@@ -310,7 +336,14 @@ fn packed(cells: &[Cell]) -> bool {
 }
 
 fn render_table(kw: &str, t: &Table) -> Vec<String> {
-    let mut lines = vec![format!("{kw} ({} -> {}) {{", names(&t.inputs), names(&t.outputs))];
+    let ins = names(&t.inputs);
+    let sep = if ins.is_empty() { "" } else { " " };
+    let mut head = format!("{kw} ({ins}{sep}-> {}) {{", names(&t.outputs));
+    if let Some(c) = &t.open_comment {
+        head.push_str("  ");
+        head.push_str(&c.text);
+    }
+    let mut lines = vec![head];
     let sides = |r: &Row| match &r.kind {
         RowKind::Cells { inputs, outputs } => (Some(inputs.clone()), outputs.clone()),
         RowKind::Unlisted { outputs } => (None, outputs.clone()),
@@ -319,7 +352,10 @@ fn render_table(kw: &str, t: &Table) -> Vec<String> {
     let packed_in = t.rows.iter().all(|r| sides(r).0.is_none_or(|c| packed(&c)));
     let packed_out = t.rows.iter().all(|r| packed(&sides(r).1));
     let join = |cells: &[Cell], packed: bool| {
-        let chars: Vec<String> = cells.iter().map(|c| c.value.as_char().to_string()).collect();
+        let chars: Vec<String> = cells
+            .iter()
+            .map(|c| c.value.as_char().to_string())
+            .collect();
         chars.join(if packed { "" } else { " " })
     };
     let lefts: Vec<String> = t
@@ -338,11 +374,13 @@ fn render_table(kw: &str, t: &Table) -> Vec<String> {
         .map(|(r, l)| {
             let mut s = format!("  {l}");
             pad_to(&mut s, left_width + 2);
+            if left_width > 0 {
+                s.push(' ');
+            }
+            s.push_str("->");
             let right = join(&sides(r).1, packed_out);
-            if right.is_empty() {
-                s.push_str(" ->");
-            } else {
-                s.push_str(" -> ");
+            if !right.is_empty() {
+                s.push(' ');
                 s.push_str(&right);
             }
             s

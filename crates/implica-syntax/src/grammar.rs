@@ -4,9 +4,9 @@
 //! cut the token stream at statement boundaries, so a failure here never
 //! spreads to the next statement.
 
+use crate::Span;
 use crate::ast::*;
 use crate::lexer::TokenKind as Tok;
-use crate::Span;
 use chumsky::input::ValueInput;
 use chumsky::prelude::*;
 
@@ -18,13 +18,6 @@ fn sp(s: SimpleSpan) -> Span {
 
 fn custom(s: Span, msg: impl ToString) -> Rich<'static, Tok, SimpleSpan> {
     Rich::custom(SimpleSpan::from(s.start..s.end), msg)
-}
-
-fn is_operator_word(k: Tok) -> bool {
-    matches!(
-        k,
-        Tok::KwNot | Tok::KwAnd | Tok::KwOr | Tok::KwXor | Tok::KwNand | Tok::KwNor | Tok::KwXnor
-    )
 }
 
 fn keyword_as_name(text: &str) -> String {
@@ -41,7 +34,9 @@ where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
 {
     any()
-        .filter(|k: &Tok| *k == Tok::Ident || (k.is_keyword() && !k.starts_statement()))
+        .filter(|k: &Tok| {
+            *k == Tok::Ident || (k.is_keyword() && (!k.starts_statement() || *k == Tok::KwTable))
+        })
         .validate(move |k, e, emitter| {
             let span = sp(e.span());
             let text = &src[span.range()];
@@ -56,31 +51,24 @@ where
         .labelled("a signal name")
 }
 
-/// A name in an expression: operator words are operators there.
+/// A name in an expression. A keyword there is an error of the expression
+/// (reported with a hint by the parse driver), not a name.
 fn expr_name<'t, I>(src: &'t str) -> impl Parser<'t, I, Name, Extra<'t>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
 {
     any()
-        .filter(|k: &Tok| {
-            *k == Tok::Ident || (k.is_keyword() && !k.starts_statement() && !is_operator_word(*k))
-        })
-        .validate(move |k, e, emitter| {
+        .filter(|k: &Tok| *k == Tok::Ident)
+        .map_with(move |_, e| {
             let span = sp(e.span());
-            let text = &src[span.range()];
-            if k != Tok::Ident {
-                emitter.emit(custom(span, keyword_as_name(text)));
-            }
             Name {
-                text: text.to_string(),
+                text: src[span.range()].to_string(),
                 span,
             }
         })
 }
 
-fn name_list<'t, I>(
-    src: &'t str,
-) -> impl Parser<'t, I, Vec<Name>, Extra<'t>> + Clone
+fn name_list<'t, I>(src: &'t str) -> impl Parser<'t, I, Vec<Name>, Extra<'t>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
 {
@@ -113,11 +101,12 @@ where
             if rest.len() > 1 {
                 if let Some(bad) = rest.iter().find(|(o, _)| !o.op.chains()) {
                     let name = bad.0.op.spelling(true);
+                    let (o1, o2) = (rest[0].0.op.spelling(rest[0].0.word), rest[1].0.op.spelling(rest[1].0.word));
                     emitter.emit(custom(
                         bad.0.span,
                         format!(
-                            "`{name}` cannot be chained with another operator of the same level: \
-                             `a {name} b {name} c` is ambiguous; add parentheses, for example `(a {name} b) {name} c`"
+                            "`{name}` is not associative, so it needs parentheses when chained with \
+                             another operator of its level: write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
                         ),
                     ));
                 }
@@ -192,7 +181,8 @@ where
         ))
         .labelled("an expression")
         .boxed();
-        let not_op = select! { Tok::Bang => false, Tok::KwNot => true }.map_with(|w, e| (w, sp(e.span())));
+        let not_op =
+            select! { Tok::Bang => false, Tok::KwNot => true }.map_with(|w, e| (w, sp(e.span())));
         let unary = not_op
             .repeated()
             .foldr(atom, |(word, op_span), operand: Expr| Expr {
@@ -253,13 +243,14 @@ where
 
 /// The value of a row number: decimal, `0x` hex or `0b` binary.
 pub fn parse_number(text: &str) -> Option<u64> {
-    let (digits, radix) = if let Some(h) = text.strip_prefix("0x").or_else(|| text.strip_prefix("0X")) {
-        (h, 16)
-    } else if let Some(b) = text.strip_prefix("0b").or_else(|| text.strip_prefix("0B")) {
-        (b, 2)
-    } else {
-        (text, 10)
-    };
+    let (digits, radix) =
+        if let Some(h) = text.strip_prefix("0x").or_else(|| text.strip_prefix("0X")) {
+            (h, 16)
+        } else if let Some(b) = text.strip_prefix("0b").or_else(|| text.strip_prefix("0B")) {
+            (b, 2)
+        } else {
+            (text, 10)
+        };
     if digits.is_empty() || !digits.chars().all(|c| c.is_digit(radix)) {
         return None;
     }
@@ -357,7 +348,10 @@ where
                     continue;
                 }
             };
-            cells.push(Cell { value, span: cell_span });
+            cells.push(Cell {
+                value,
+                span: cell_span,
+            });
         }
         cells
     });
@@ -409,9 +403,11 @@ where
                 }),
         ));
     let row_ends = just(Tok::RowEnd).repeated();
-    let rows = row_ends
-        .clone()
-        .ignore_then(row.then_ignore(row_ends.clone()).repeated().collect::<Vec<_>>());
+    let rows = row_ends.clone().ignore_then(
+        row.then_ignore(row_ends.clone())
+            .repeated()
+            .collect::<Vec<_>>(),
+    );
     header
         .then(rows.delimited_by(just(Tok::LBrace), just(Tok::RBrace)))
         .map(|((inputs, outputs), rows)| Table {
@@ -419,6 +415,7 @@ where
             inputs,
             outputs,
             rows,
+            open_comment: None,
             closing_comments: Vec::new(),
         })
 }
@@ -469,7 +466,9 @@ where
             rhs,
         })
     });
-    let never = just(Tok::KwNever).ignore_then(expr.clone()).map(ItemKind::Never);
+    let never = just(Tok::KwNever)
+        .ignore_then(expr.clone())
+        .map(ItemKind::Never);
     let assert = just(Tok::KwAssert).ignore_then(expr).map(ItemKind::Assert);
     let expect = just(Tok::KwExpect)
         .ignore_then(table_body(src, false))

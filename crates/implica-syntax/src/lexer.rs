@@ -125,7 +125,10 @@ pub struct Token {
 impl TokenKind {
     /// Whitespace, line breaks and comments.
     pub fn is_trivia(self) -> bool {
-        matches!(self, TokenKind::Whitespace | TokenKind::Newline | TokenKind::Comment)
+        matches!(
+            self,
+            TokenKind::Whitespace | TokenKind::Newline | TokenKind::Comment
+        )
     }
 
     /// Keywords that begin a statement.

@@ -18,8 +18,16 @@ impl LineIndex {
     /// Indexes `text`.
     pub fn new(text: &str) -> LineIndex {
         let mut starts = vec![0];
-        starts.extend(text.bytes().enumerate().filter(|(_, b)| *b == b'\n').map(|(i, _)| i + 1));
-        LineIndex { starts, len: text.len() }
+        starts.extend(
+            text.bytes()
+                .enumerate()
+                .filter(|(_, b)| *b == b'\n')
+                .map(|(i, _)| i + 1),
+        );
+        LineIndex {
+            starts,
+            len: text.len(),
+        }
     }
 
     /// The position of byte `offset` (clamped to the text; an offset inside a

@@ -13,7 +13,7 @@
 
 use crate::ast::*;
 use crate::grammar;
-use crate::lexer::{lex, Token, TokenKind as Tok};
+use crate::lexer::{Token, TokenKind as Tok, lex};
 use crate::{Span, SyntaxError};
 use chumsky::error::{Rich, RichPattern, RichReason};
 use chumsky::input::Input as _;
@@ -134,8 +134,16 @@ fn split_statements(src: &str, tokens: &[Token]) -> Split {
         let starts = match tok.kind {
             Tok::KwTable => prev != Some(Tok::KwLet),
             k if k.starts_statement() => true,
+            // After `assert` or `never`, `x = y` is a mistyped comparison,
+            // reported there, not a definition.
             k if k == Tok::Ident || k.is_keyword() => {
-                prev != Some(Tok::KwLet) && next_significant(i + 1) == Some(Tok::Assign)
+                let check_on_same_line = matches!(prev, Some(Tok::KwAssert | Tok::KwNever))
+                    && significant
+                        .last()
+                        .is_some_and(|t| same_line(src, t.1.end, tok.span.start));
+                prev != Some(Tok::KwLet)
+                    && !check_on_same_line
+                    && next_significant(i + 1) == Some(Tok::Assign)
             }
             _ => false,
         };
@@ -226,7 +234,11 @@ where
         >,
 {
     let first = toks[0];
-    let last_end = toks.iter().rev().find(|t| t.0 != Tok::RowEnd).map_or(first.1.end, |t| t.1.end);
+    let last_end = toks
+        .iter()
+        .rev()
+        .find(|t| t.0 != Tok::RowEnd)
+        .map_or(first.1.end, |t| t.1.end);
     let span = Span::new(first.1.start, last_end);
     let error_item = Item {
         kind: ItemKind::Error,
@@ -249,7 +261,9 @@ where
         return error_item;
     }
     let eoi: SimpleSpan = (last_end..last_end).into();
-    let (out, errs) = statement.parse(toks.split_token_span(eoi)).into_output_errors();
+    let (out, errs) = statement
+        .parse(toks.split_token_span(eoi))
+        .into_output_errors();
     let at_file_end = src[last_end..].trim().is_empty() || {
         // Only comments follow.
         src[last_end..]
@@ -276,7 +290,9 @@ fn not_a_statement(src: &str, (kind, span): (Tok, SimpleSpan)) -> SyntaxError {
             "to define `{text}`, write `{text} = expression`; to use it, put it on the right of a definition"
         )),
         Tok::RBrace => Some("this `}` closes nothing; remove it".to_string()),
-        Tok::Foreign if text == ";" => Some("statements need no separator; remove the `;`".to_string()),
+        Tok::Foreign if text == ";" => {
+            Some("statements need no separator; remove the `;`".to_string())
+        }
         _ => None,
     };
     SyntaxError {
@@ -302,7 +318,10 @@ fn describe_found(src: &str, kind: Option<Tok>, span: SimpleSpan) -> String {
             if text.chars().count() > 8 {
                 format!("the unexpected characters `{shown}…`")
             } else {
-                format!("the unexpected character{} `{shown}`", if text.chars().count() > 1 { "s" } else { "" })
+                format!(
+                    "the unexpected character{} `{shown}`",
+                    if text.chars().count() > 1 { "s" } else { "" }
+                )
             }
         }
         Some(_) => format!("`{}`", &src[span.start..span.end]),
@@ -372,7 +391,11 @@ fn convert_error(
             words.push(w);
         }
     };
-    let wants = |k: Tok| expected.iter().any(|p| matches!(p, RichPattern::Token(t) if **t == k));
+    let wants = |k: Tok| {
+        expected
+            .iter()
+            .any(|p| matches!(p, RichPattern::Token(t) if **t == k))
+    };
     let wants_close_paren = wants(Tok::RParen);
     let wants_close_brace = wants(Tok::RBrace);
     let wants_arrow = wants(Tok::Arrow);
@@ -389,6 +412,49 @@ fn convert_error(
             _ => push("something else".to_string()),
         }
     }
+    if words.len() > 1 {
+        words.retain(|w| w != "something else" && w != "more input");
+    }
+    if found == Some(Tok::Error) {
+        let text = &src[span.start..span.end];
+        let shown: String = text.chars().take(8).collect();
+        out.message = format!(
+            "unexpected character{} `{shown}`",
+            if text.chars().count() > 1 { "s" } else { "" }
+        );
+        if text.chars().any(|c| !c.is_ascii()) {
+            out.help = Some("names use ASCII letters, digits and `_` only".to_string());
+        }
+        return out;
+    }
+    if found == Some(Tok::Assign) {
+        out.message = "unexpected `=` inside an expression".to_string();
+        out.help = Some("to compare two signals, write `==`; to define a signal, start a new statement `name = ...`".to_string());
+        return out;
+    }
+    if wants_close_brace && found.is_none() {
+        if let Some(open) = unclosed(before_error(toks, span), Tok::LBrace, Tok::RBrace) {
+            out.message =
+                "expected `}` to close the table, found the end of the statement".to_string();
+            out.help = Some("add `}` after the last row".to_string());
+            out.related.push((
+                Span::new(open.start, open.end),
+                "this `{` is not closed".to_string(),
+            ));
+            return out;
+        }
+    }
+    if found.is_some() && words == ["the end of the statement"] {
+        out.message = format!(
+            "unexpected {} after a complete statement",
+            describe_found(src, found, span)
+        );
+        out.help = Some(
+            "a statement starts with a keyword or with `name =`; to define a signal, write `name = expression`"
+                .to_string(),
+        );
+        return out;
+    }
     let found_text = match found {
         None if at_file_end => "the end of the file".to_string(),
         other => describe_found(src, other, span),
@@ -398,30 +464,42 @@ fn convert_error(
     } else {
         format!("expected {}, found {found_text}", join_or(&words))
     };
-    if found == Some(Tok::Error) && src[span.start..span.end].chars().any(|c| !c.is_ascii()) {
-        out.help = Some("names use ASCII letters, digits and `_` only".to_string());
+    if let Some(k) = found.filter(|k| k.is_keyword()) {
+        if words.iter().any(|w| w == "an expression") && !is_binary_op(k) && k != Tok::KwNot {
+            out.help = Some(format!(
+                "`{}` is a keyword and cannot be used as a signal name",
+                &src[span.start..span.end]
+            ));
+        }
+    }
+    if found.is_some()
+        && expected
+            .iter()
+            .any(|p| matches!(p, RichPattern::EndOfInput))
+    {
+        out.help = Some("a statement starts with a keyword or with `name =`".to_string());
     }
     // Point at the opening delimiter that is never closed.
-    let before = &toks[..toks.partition_point(|t| t.1.start < span.start)];
+    let before = before_error(toks, span);
     if wants_close_paren {
         if let Some(open) = unclosed(before, Tok::LParen, Tok::RParen) {
             out.help = Some("add `)` to close the `(`".to_string());
-            out.related.push((Span::new(open.start, open.end), "this `(` is not closed".to_string()));
-        }
-    }
-    if wants_close_brace && found.is_none() {
-        if let Some(open) = unclosed(before, Tok::LBrace, Tok::RBrace) {
-            out.help = Some("add `}` to close the table".to_string());
-            out.related.push((Span::new(open.start, open.end), "this `{` is not closed".to_string()));
+            out.related.push((
+                Span::new(open.start, open.end),
+                "this `(` is not closed".to_string(),
+            ));
         }
     }
     if wants_arrow && out.help.is_none() {
-        out.help = Some("write a row as input cells, `->`, output cells, for example `01 -> 1`".to_string());
-    }
-    if found == Some(Tok::Assign) {
-        out.help = Some("to compare two signals, write `==`".to_string());
+        out.help = Some(
+            "write a row as input cells, `->`, output cells, for example `01 -> 1`".to_string(),
+        );
     }
     out
+}
+
+fn before_error(toks: &[(Tok, SimpleSpan)], at: SimpleSpan) -> &[(Tok, SimpleSpan)] {
+    &toks[..toks.partition_point(|t| t.1.start < at.start)]
 }
 
 fn unclosed(toks: &[(Tok, SimpleSpan)], open: Tok, close: Tok) -> Option<SimpleSpan> {
@@ -452,12 +530,20 @@ fn same_line(src: &str, from: usize, to: usize) -> bool {
 /// Whether the line above the one holding `pos` is blank.
 fn blank_line_before(src: &str, pos: usize) -> bool {
     let bytes = src.as_bytes();
-    let line_start = bytes[..pos].iter().rposition(|&b| b == b'\n').map_or(0, |i| i + 1);
+    let line_start = bytes[..pos]
+        .iter()
+        .rposition(|&b| b == b'\n')
+        .map_or(0, |i| i + 1);
     if line_start == 0 {
         return false;
     }
-    let prev_start = bytes[..line_start - 1].iter().rposition(|&b| b == b'\n').map_or(0, |i| i + 1);
-    bytes[prev_start..line_start - 1].iter().all(|b| b.is_ascii_whitespace())
+    let prev_start = bytes[..line_start - 1]
+        .iter()
+        .rposition(|&b| b == b'\n')
+        .map_or(0, |i| i + 1);
+    bytes[prev_start..line_start - 1]
+        .iter()
+        .all(|b| b.is_ascii_whitespace())
 }
 
 fn attach_trivia(src: &str, file: &mut SourceFile, comments: &[Comment]) {
@@ -470,7 +556,9 @@ fn attach_trivia(src: &str, file: &mut SourceFile, comments: &[Comment]) {
         }
     }
     for c in comments {
-        let next = file.items.partition_point(|it| it.span.start <= c.span.start);
+        let next = file
+            .items
+            .partition_point(|it| it.span.start <= c.span.start);
         if next > 0 {
             let prev = &mut file.items[next - 1];
             if prev.span.end > c.span.start {
@@ -499,7 +587,9 @@ fn attach_inside(src: &str, item: &mut Item, c: &Comment) {
         }
     };
     // The body starts at the `{`, which ends the header.
-    let body_start = src[item.span.start..c.span.start].find('{').map(|i| item.span.start + i);
+    let body_start = src[item.span.start..c.span.start]
+        .find('{')
+        .map(|i| item.span.start + i);
     let Some(body_start) = body_start else {
         item.trivia.interior.push(c.clone());
         return;
@@ -515,10 +605,8 @@ fn attach_inside(src: &str, item: &mut Item, c: &Comment) {
             prev.trivia.trailing = Some(c.clone());
             return;
         }
-    } else if same_line(src, body_start, c.span.start) {
-        // A comment on the line of `{` stays where it is only when the
-        // formatter keeps the statement as written.
-        item.trivia.interior.push(c.clone());
+    } else if same_line(src, body_start, c.span.start) && table.open_comment.is_none() {
+        table.open_comment = Some(c.clone());
         return;
     }
     let blank = blank_line_before(src, c.span.start);

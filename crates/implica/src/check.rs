@@ -1,13 +1,13 @@
 //! `implica check` and the presentation of diagnostics.
 
-use crate::files;
 use crate::OutputFormat;
+use crate::files;
 use codespan_reporting::diagnostic::{Diagnostic as Report, Label, Severity as ReportSeverity};
 use codespan_reporting::files::SimpleFile;
 use codespan_reporting::term::{self, termcolor};
 use implica_analysis::{Applicability, Diagnostic, Severity};
 use implica_syntax::LineIndex;
-use serde_json::{json, Value};
+use serde_json::{Value, json};
 use std::io::IsTerminal;
 use std::path::PathBuf;
 use std::process::ExitCode;
@@ -76,7 +76,10 @@ pub fn run(paths: &[PathBuf], format: OutputFormat) -> ExitCode {
                 plural(summary.infos + summary.hints, "note"),
             );
             if summary.unreadable > 0 {
-                line.push_str(&format!("; {} could not be read", plural(summary.unreadable, "path")));
+                line.push_str(&format!(
+                    "; {} could not be read",
+                    plural(summary.unreadable, "path")
+                ));
             }
             println!("{line}");
         }
@@ -180,7 +183,11 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
         };
         let clamp = |s: implica_syntax::Span| s.start.min(text.len())..s.end.min(text.len());
         let mut labels = vec![Label::primary((), clamp(d.span))];
-        labels.extend(d.related.iter().map(|r| Label::secondary((), clamp(r.span)).with_message(&r.message)));
+        labels.extend(
+            d.related
+                .iter()
+                .map(|r| Label::secondary((), clamp(r.span)).with_message(&r.message)),
+        );
         let mut report = Report::new(severity)
             .with_code(d.rule)
             .with_message(&d.message)

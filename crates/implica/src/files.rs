@@ -54,7 +54,9 @@ fn walk(dir: &Path, out: &mut Vec<PathBuf>, problems: &mut Vec<String>) {
     };
     for entry in entries.flatten() {
         let path = entry.path();
-        let Ok(kind) = entry.file_type() else { continue };
+        let Ok(kind) = entry.file_type() else {
+            continue;
+        };
         if kind.is_dir() {
             walk(&path, out, problems);
         } else if path.extension().is_some_and(|e| e == "imp") {

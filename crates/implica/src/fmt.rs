@@ -73,7 +73,11 @@ pub fn run(paths: &[PathBuf], check: bool) -> ExitCode {
             "{} file{} would be reformatted; run `implica fmt` on {}",
             would_change.len(),
             if would_change.len() == 1 { "" } else { "s" },
-            if would_change.len() == 1 { "it" } else { "them" }
+            if would_change.len() == 1 {
+                "it"
+            } else {
+                "them"
+            }
         );
         ExitCode::from(1)
     } else {
