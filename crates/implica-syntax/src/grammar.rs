@@ -104,10 +104,18 @@ where
                     let (o1, o2) = (rest[0].0.op.spelling(rest[0].0.word), rest[1].0.op.spelling(rest[1].0.word));
                     emitter.emit(custom(
                         bad.0.span,
-                        format!(
-                            "`{name}` is not associative, so it needs parentheses when chained with \
-                             another operator of its level: write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
-                        ),
+                        if bad.0.op == BinOp::Xnor {
+                            format!(
+                                "`xnor` needs parentheses when chained with another operator of its level, \
+                                 since `a xnor b xnor c` is easily misread as \"all three equal\": \
+                                 write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
+                            )
+                        } else {
+                            format!(
+                                "`{name}` is not associative, so it needs parentheses when chained with \
+                                 another operator of its level: write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
+                            )
+                        },
                     ));
                 }
             }
