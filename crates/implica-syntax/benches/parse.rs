@@ -1,1 +1,88 @@
-fn main() {}
+//! Parse and format throughput on a generated 100,000-line spec.
+//! Run with `cargo bench -p implica-syntax --bench parse`; figures go in
+//! docs/benchmarks.md.
+
+use divan::Bencher;
+use divan::counter::BytesCount;
+
+fn main() {
+    divan::main();
+}
+
+/// A spec of about `lines` lines mixing every statement kind, deterministic.
+pub fn generated_spec(lines: usize) -> String {
+    let mut s = String::with_capacity(lines * 40);
+    s.push_str("# generated benchmark spec\ninput a0, a1, a2, a3, a4, a5, a6, a7\n");
+    let mut n = 2;
+    let mut i = 0usize;
+    while n < lines {
+        match i % 10 {
+            0..=5 => {
+                s.push_str(&format!(
+                    "let s{i} = a{} & !a{} | (a{} ^ a{}) & s{}  # term {i}\n",
+                    i % 8,
+                    (i + 3) % 8,
+                    (i + 5) % 8,
+                    (i + 1) % 8,
+                    i.saturating_sub(1)
+                ));
+                n += 1;
+            }
+            6 => {
+                s.push_str(&format!(
+                    "let t{i} = on(0, 3, 5..7) dc(0x8..0xF) over (a0, a1, a2, a3)\n"
+                ));
+                n += 1;
+            }
+            7 => {
+                s.push_str(&format!(
+                    "let table (a0, a1, a2 -> u{i}, v{i}) {{\n  000 -> 01\n  01- -> 10\n  1-1 -> 1-\n  unlisted -> 00\n}}\n"
+                ));
+                n += 6;
+            }
+            8 => {
+                s.push_str(&format!("assert s{} => a{} | !a{}\n", i - 2, i % 8, i % 8));
+                n += 1;
+            }
+            _ => {
+                s.push_str("\n# a section comment\n");
+                n += 2;
+            }
+        }
+        i += 1;
+    }
+    s
+}
+
+#[divan::bench(sample_count = 20)]
+fn parse_100k_lines(bencher: Bencher) {
+    let src = generated_spec(100_000);
+    assert!(implica_syntax::parse(&src).1.is_empty());
+    bencher
+        .counter(BytesCount::new(src.len()))
+        .bench(|| implica_syntax::parse(divan::black_box(&src)));
+}
+
+#[divan::bench(sample_count = 10)]
+fn parse_1m_lines(bencher: Bencher) {
+    let src = generated_spec(1_000_000);
+    bencher
+        .counter(BytesCount::new(src.len()))
+        .bench(|| implica_syntax::parse(divan::black_box(&src)));
+}
+
+#[divan::bench(sample_count = 20)]
+fn lex_100k_lines(bencher: Bencher) {
+    let src = generated_spec(100_000);
+    bencher
+        .counter(BytesCount::new(src.len()))
+        .bench(|| implica_syntax::lexer::lex(divan::black_box(&src)));
+}
+
+#[divan::bench(sample_count = 20)]
+fn format_100k_lines(bencher: Bencher) {
+    let src = generated_spec(100_000);
+    bencher
+        .counter(BytesCount::new(src.len()))
+        .bench(|| implica_syntax::format::format_source(divan::black_box(&src)));
+}

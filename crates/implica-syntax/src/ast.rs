@@ -8,6 +8,7 @@
 //! source text, so later layers may keep it while the text is edited.
 
 use crate::Span;
+pub use smol_str::SmolStr;
 
 /// A parsed `.imp` file.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -74,7 +75,8 @@ pub enum ItemKind {
 /// A signal name with its span.
 #[derive(Debug, Clone, PartialEq, Eq, Hash)]
 pub struct Name {
-    pub text: String,
+    /// The name; short names are stored inline, without allocation.
+    pub text: SmolStr,
     pub span: Span,
 }
 

@@ -121,7 +121,7 @@ fn has_error_nodes(item: &Item) -> bool {
 fn define_head(d: &Define) -> String {
     match d.let_span {
         Some(_) => format!("let {}", d.target.text),
-        None => d.target.text.clone(),
+        None => d.target.text.to_string(),
     }
 }
 
@@ -238,7 +238,7 @@ fn render_decl(kw: &str, list: &[Name], width: usize) -> Vec<String> {
     for (i, n) in list.iter().enumerate() {
         let last = i + 1 == list.len();
         let piece = if last {
-            n.text.clone()
+            n.text.to_string()
         } else {
             format!("{},", n.text)
         };

@@ -7,17 +7,41 @@
 use crate::Span;
 use crate::ast::*;
 use crate::lexer::TokenKind as Tok;
-use chumsky::input::ValueInput;
+use chumsky::error::{EmptyErr, LabelError};
+use chumsky::input::{Input, ValueInput};
 use chumsky::prelude::*;
 
-pub(crate) type Extra<'t> = extra::Err<Rich<'t, Tok, SimpleSpan>>;
+/// The error types the grammar runs with. Valid statements (nearly all
+/// of them) are parsed with [`EmptyErr`], which costs nothing when an
+/// alternative fails; a statement with an error is parsed again with
+/// [`Rich`] to describe it.
+pub(crate) trait GrammarError<'t, I: Input<'t>>:
+    chumsky::error::Error<'t, I> + LabelError<'t, I, &'static str> + 't
+{
+    fn custom_at(span: Span, message: String) -> Self;
+}
+
+impl<'t, I> GrammarError<'t, I> for Rich<'t, Tok, SimpleSpan>
+where
+    I: Input<'t, Token = Tok, Span = SimpleSpan>,
+{
+    fn custom_at(span: Span, message: String) -> Self {
+        Rich::custom(SimpleSpan::from(span.start..span.end), message)
+    }
+}
+
+impl<'t, I: Input<'t>> GrammarError<'t, I> for EmptyErr {
+    fn custom_at(_: Span, _: String) -> Self {
+        EmptyErr::default()
+    }
+}
 
 fn sp(s: SimpleSpan) -> Span {
     Span::new(s.start, s.end)
 }
 
-fn custom(s: Span, msg: impl ToString) -> Rich<'static, Tok, SimpleSpan> {
-    Rich::custom(SimpleSpan::from(s.start..s.end), msg)
+fn custom<'t, I: Input<'t>, Er: GrammarError<'t, I>>(s: Span, msg: impl ToString) -> Er {
+    Er::custom_at(s, msg.to_string())
 }
 
 fn keyword_as_name(text: &str) -> String {
@@ -29,9 +53,10 @@ fn keyword_as_name(text: &str) -> String {
 /// A signal name in a declaration, a definition target, a table header or
 /// an `over` list. Keywords are accepted with an error so the tree keeps
 /// the name.
-fn decl_name<'t, I>(src: &'t str) -> impl Parser<'t, I, Name, Extra<'t>> + Clone
+fn decl_name<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, Name, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     any()
         .filter(|k: &Tok| {
@@ -44,7 +69,7 @@ where
                 emitter.emit(custom(span, keyword_as_name(text)));
             }
             Name {
-                text: text.to_string(),
+                text: SmolStr::new(text),
                 span,
             }
         })
@@ -53,24 +78,26 @@ where
 
 /// A name in an expression. A keyword there is an error of the expression
 /// (reported with a hint by the parse driver), not a name.
-fn expr_name<'t, I>(src: &'t str) -> impl Parser<'t, I, Name, Extra<'t>> + Clone
+fn expr_name<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, Name, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     any()
         .filter(|k: &Tok| *k == Tok::Ident)
         .map_with(move |_, e| {
             let span = sp(e.span());
             Name {
-                text: src[span.range()].to_string(),
+                text: SmolStr::new(&src[span.range()]),
                 span,
             }
         })
 }
 
-fn name_list<'t, I>(src: &'t str) -> impl Parser<'t, I, Vec<Name>, Extra<'t>> + Clone
+fn name_list<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, Vec<Name>, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     decl_name(src)
         .separated_by(just(Tok::Comma))
@@ -79,67 +106,85 @@ where
         .collect::<Vec<_>>()
 }
 
-/// One precedence level: operands joined by the level's operators.
-fn chain<'t, I, P, O>(lower: P, ops: O) -> impl Parser<'t, I, Expr, Extra<'t>> + Clone
-where
-    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
-    P: Parser<'t, I, Expr, Extra<'t>> + Clone + 't,
-    O: Parser<'t, I, (BinOp, bool), Extra<'t>> + Clone + 't,
-{
-    let op = ops.map_with(|(op, word), e| OpToken {
-        op,
-        word,
-        span: sp(e.span()),
-    });
-    lower
-        .clone()
-        .then(op.then(lower).repeated().collect::<Vec<_>>())
-        .validate(|(first, rest), e, emitter| {
-            if rest.is_empty() {
-                return first;
-            }
-            if rest.len() > 1 {
-                if let Some(bad) = rest.iter().find(|(o, _)| !o.op.chains()) {
-                    let name = bad.0.op.spelling(true);
-                    let (o1, o2) = (rest[0].0.op.spelling(rest[0].0.word), rest[1].0.op.spelling(rest[1].0.word));
-                    emitter.emit(custom(
-                        bad.0.span,
-                        if bad.0.op == BinOp::Xnor {
-                            format!(
-                                "`xnor` needs parentheses when chained with another operator of its level, \
-                                 since `a xnor b xnor c` is easily misread as \"all three equal\": \
-                                 write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
-                            )
-                        } else {
-                            format!(
-                                "`{name}` is not associative, so it needs parentheses when chained with \
-                                 another operator of its level: write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
-                            )
-                        },
-                    ));
-                }
-            }
-            let mut operands = Vec::with_capacity(rest.len() + 1);
-            let mut ops = Vec::with_capacity(rest.len());
-            operands.push(first);
-            for (o, x) in rest {
-                ops.push(o);
-                operands.push(x);
-            }
+/// Adds `op rhs` to `lhs`: to its chain when `lhs` is a chain of the same
+/// precedence level (not parenthesized), else to a new chain.
+fn extend_chain(lhs: Expr, op: OpToken, rhs: Expr) -> Expr {
+    let span = lhs.span.to(rhs.span);
+    match lhs.kind {
+        ExprKind::Chain {
+            mut operands,
+            mut ops,
+        } if ops[0].op.precedence() == op.op.precedence() => {
+            ops.push(op);
+            operands.push(rhs);
             Expr {
                 kind: ExprKind::Chain { operands, ops },
-                span: sp(e.span()),
+                span,
             }
-        })
-        .boxed()
+        }
+        kind => Expr {
+            kind: ExprKind::Chain {
+                operands: vec![
+                    Expr {
+                        kind,
+                        span: lhs.span,
+                    },
+                    rhs,
+                ],
+                ops: vec![op],
+            },
+            span,
+        },
+    }
+}
+
+/// The first chain, outside parentheses, that mixes a non-associative
+/// operator with another operator of its level.
+fn unchainable(e: &Expr) -> Option<(OpToken, OpToken, OpToken)> {
+    match &e.kind {
+        ExprKind::Chain { operands, ops } => {
+            if ops.len() > 1 {
+                if let Some(bad) = ops.iter().find(|o| !o.op.chains()) {
+                    return Some((*bad, ops[0], ops[1]));
+                }
+            }
+            operands.iter().find_map(unchainable)
+        }
+        ExprKind::Not { operand, .. } => unchainable(operand),
+        // Checked when the parenthesized expression itself was parsed.
+        _ => None,
+    }
+}
+
+fn unchainable_message(bad: OpToken, o1: OpToken, o2: OpToken) -> String {
+    let (o1, o2) = (o1.op.spelling(o1.word), o2.op.spelling(o2.word));
+    if bad.op == BinOp::Xnor {
+        format!(
+            "`xnor` needs parentheses when chained with another operator of its level, \
+             since `a xnor b xnor c` is easily misread as \"all three equal\": \
+             write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
+        )
+    } else {
+        let name = bad.op.spelling(true);
+        format!(
+            "`{name}` is not associative, so it needs parentheses when chained with \
+             another operator of its level: write `(a {o1} b) {o2} c` or `a {o1} (b {o2} c)`"
+        )
+    }
 }
 
 /// Expressions, by precedence (tightest first): `!`/`not`; `&`/`and`/`nand`;
 /// `^`/`xor`/`xnor`; `|`/`or`/`nor`; `==`/`!=`; `=>`.
-pub(crate) fn expr<'t, I>(src: &'t str) -> impl Parser<'t, I, Expr, Extra<'t>> + Clone
+///
+/// A Pratt parser over one operator table. Every level folds into a flat
+/// chain (so `=>` is folded like the others; its grouping to the right is
+/// applied by consumers of [`ExprKind::Chain`]).
+pub(crate) fn expr<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, Expr, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
+    use chumsky::pratt::{infix, left, prefix};
     recursive(move |expr| {
         let constant = just(Tok::Number).validate(move |_, e, emitter| {
             let span = sp(e.span());
@@ -189,43 +234,50 @@ where
         ))
         .labelled("an expression")
         .boxed();
-        let not_op =
+        let op =
+            |(op, word): (BinOp, bool),
+             e: &mut chumsky::input::MapExtra<'t, '_, I, extra::Err<Er>>| OpToken {
+                op,
+                word,
+                span: sp(e.span()),
+            };
+        let and_ops = select! { Tok::Amp => (BinOp::And, false), Tok::KwAnd => (BinOp::And, true), Tok::KwNand => (BinOp::Nand, true) }.map_with(op);
+        let xor_ops = select! { Tok::Caret => (BinOp::Xor, false), Tok::KwXor => (BinOp::Xor, true), Tok::KwXnor => (BinOp::Xnor, true) }.map_with(op);
+        let or_ops = select! { Tok::Pipe => (BinOp::Or, false), Tok::KwOr => (BinOp::Or, true), Tok::KwNor => (BinOp::Nor, true) }.map_with(op);
+        let eq_ops = select! { Tok::EqEq => (BinOp::Eq, false), Tok::NotEq => (BinOp::Ne, false) }
+            .map_with(op);
+        let implies_ops = select! { Tok::Implies => (BinOp::Implies, false) }.map_with(op);
+        let not =
             select! { Tok::Bang => false, Tok::KwNot => true }.map_with(|w, e| (w, sp(e.span())));
-        let unary = not_op
-            .repeated()
-            .foldr(atom, |(word, op_span), operand: Expr| Expr {
-                span: op_span.to(operand.span),
-                kind: ExprKind::Not {
-                    word,
-                    operand: Box::new(operand),
-                },
-            })
-            .boxed();
-        let and = chain(
-            unary,
-            select! { Tok::Amp => (BinOp::And, false), Tok::KwAnd => (BinOp::And, true), Tok::KwNand => (BinOp::Nand, true) },
-        );
-        let xor = chain(
-            and,
-            select! { Tok::Caret => (BinOp::Xor, false), Tok::KwXor => (BinOp::Xor, true), Tok::KwXnor => (BinOp::Xnor, true) },
-        );
-        let or = chain(
-            xor,
-            select! { Tok::Pipe => (BinOp::Or, false), Tok::KwOr => (BinOp::Or, true), Tok::KwNor => (BinOp::Nor, true) },
-        );
-        let eq = chain(
-            or,
-            select! { Tok::EqEq => (BinOp::Eq, false), Tok::NotEq => (BinOp::Ne, false) },
-        );
-        // `=>` groups to the right; the chain keeps the operands flat and
-        // consumers fold from the right.
-        chain(eq, select! { Tok::Implies => (BinOp::Implies, false) })
+        atom.pratt((
+            prefix(6, not, |(word, span): (bool, Span), operand: Expr, _| {
+                Expr {
+                    span: span.to(operand.span),
+                    kind: ExprKind::Not {
+                        word,
+                        operand: Box::new(operand),
+                    },
+                }
+            }),
+            infix(left(5), and_ops, |l, o, r, _| extend_chain(l, o, r)),
+            infix(left(4), xor_ops, |l, o, r, _| extend_chain(l, o, r)),
+            infix(left(3), or_ops, |l, o, r, _| extend_chain(l, o, r)),
+            infix(left(2), eq_ops, |l, o, r, _| extend_chain(l, o, r)),
+            infix(left(1), implies_ops, |l, o, r, _| extend_chain(l, o, r)),
+        ))
+        .validate(|e: Expr, _, emitter| {
+            if let Some((bad, o1, o2)) = unchainable(&e) {
+                emitter.emit(custom(bad.span, unchainable_message(bad, o1, o2)));
+            }
+            e
+        })
     })
 }
 
-fn number<'t, I>(src: &'t str) -> impl Parser<'t, I, Number, Extra<'t>> + Clone
+fn number<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, Number, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     just(Tok::Number)
         .validate(move |_, e, emitter| {
@@ -265,9 +317,10 @@ pub fn parse_number(text: &str) -> Option<u64> {
     u64::from_str_radix(digits, radix).ok()
 }
 
-fn term_list<'t, I>(src: &'t str) -> impl Parser<'t, I, TermList, Extra<'t>> + Clone
+fn term_list<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, TermList, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     let entry = number(src)
         .then(just(Tok::DotDot).ignore_then(number(src)).or_not())
@@ -325,12 +378,13 @@ where
 }
 
 /// `(a, b -> y) { rows }`, shared by `table` and `expect`.
-fn table_body<'t, I>(
+fn table_body<'t, I, Er>(
     src: &'t str,
     allow_unlisted: bool,
-) -> impl Parser<'t, I, Table, Extra<'t>> + Clone
+) -> impl Parser<'t, I, Table, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     let header = name_list(src)
         .or_not()
@@ -429,9 +483,12 @@ where
 }
 
 /// One statement, up to the end of its token chunk.
-pub(crate) fn statement<'t, I>(src: &'t str) -> impl Parser<'t, I, ItemKind, Extra<'t>> + Clone
+pub(crate) fn statement<'t, I, Er>(
+    src: &'t str,
+) -> impl Parser<'t, I, ItemKind, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
+    Er: GrammarError<'t, I>,
 {
     let expr = expr(src).boxed();
     let decl = select! { Tok::KwInput => true, Tok::KwOutput => false }

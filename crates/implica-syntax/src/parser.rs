@@ -13,11 +13,12 @@
 
 use crate::ast::*;
 use crate::grammar;
-use crate::lexer::{Token, TokenKind as Tok, lex};
+use crate::lexer::TokenKind as Tok;
 use crate::{Span, SyntaxError};
-use chumsky::error::{Rich, RichPattern, RichReason};
+use chumsky::error::{EmptyErr, Rich, RichPattern, RichReason};
 use chumsky::input::Input as _;
 use chumsky::prelude::*;
+use logos::Logos;
 
 /// Deepest nesting of parentheses and `!` accepted in one expression.
 /// Deeper input is reported instead of parsed, so that neither the parser
@@ -26,14 +27,14 @@ pub const MAX_NESTING: usize = 128;
 
 /// Parses `src` into a syntax tree and the list of every syntax error.
 pub fn parse(src: &str) -> (SourceFile, Vec<SyntaxError>) {
-    let tokens = lex(src);
-    let split = split_statements(src, &tokens);
-    let statement = grammar::statement(src);
+    let split = split_statements(src);
+    let fast = grammar::statement::<_, EmptyErr>(src);
+    let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>>(src);
     let mut errors = Vec::new();
     let mut items = Vec::with_capacity(split.chunks.len());
     for chunk in &split.chunks {
         let toks = &split.significant[chunk.clone()];
-        items.push(parse_statement(src, toks, &statement, &mut errors));
+        items.push(parse_statement(src, toks, &fast, &rich, &mut errors));
     }
     let mut file = SourceFile {
         items,
@@ -96,66 +97,80 @@ struct Split {
     comments: Vec<Comment>,
 }
 
-fn split_statements(src: &str, tokens: &[Token]) -> Split {
-    let mut significant: Vec<(Tok, SimpleSpan)> = Vec::with_capacity(tokens.len() / 2 + 1);
+/// Lexes and splits in one pass, without keeping trivia tokens.
+fn split_statements(src: &str) -> Split {
+    let mut significant: Vec<(Tok, SimpleSpan)> = Vec::with_capacity(src.len() / 4 + 1);
     let mut chunks = Vec::new();
     let mut comments = Vec::new();
     let mut chunk_start = 0usize;
     // Table/expect body state of the current statement.
     let mut awaiting_body = false;
     let mut body_depth = 0usize;
-    let next_significant = |mut i: usize| {
-        while i < tokens.len() && tokens[i].kind.is_trivia() {
-            i += 1;
-        }
-        tokens.get(i).map(|t| t.kind)
-    };
-    for (i, tok) in tokens.iter().enumerate() {
-        match tok.kind {
+    let mut lexer = Tok::lexer(src);
+    while let Some(result) = lexer.next() {
+        let range = lexer.span();
+        let kind = result.unwrap_or(Tok::Error);
+        match kind {
             Tok::Whitespace => continue,
             Tok::Comment => {
                 // Trailing spaces and a carriage return are not part of the comment.
-                let text = src[tok.span.range()].trim_end();
+                let text = src[range.clone()].trim_end();
                 comments.push(Comment {
                     text: text.to_string(),
-                    span: Span::new(tok.span.start, tok.span.start + text.len()),
+                    span: Span::new(range.start, range.start + text.len()),
                 });
                 continue;
             }
             Tok::Newline => {
                 if body_depth > 0 && significant.last().is_some_and(|t| t.0 != Tok::RowEnd) {
-                    significant.push((Tok::RowEnd, (tok.span.start..tok.span.start).into()));
+                    significant.push((Tok::RowEnd, (range.start..range.start).into()));
                 }
                 continue;
+            }
+            Tok::Error => {
+                if let Some(last) = significant.last_mut() {
+                    if last.0 == Tok::Error && last.1.end == range.start {
+                        last.1.end = range.end;
+                        continue;
+                    }
+                }
             }
             _ => {}
         }
         let prev = significant[chunk_start..].last().map(|t| t.0);
-        let starts = match tok.kind {
-            Tok::KwTable => prev != Some(Tok::KwLet),
-            k if k.starts_statement() => true,
-            // After `assert` or `never`, `x = y` is a mistyped comparison,
-            // reported there, not a definition.
-            k if k == Tok::Ident || k.is_keyword() => {
-                let check_on_same_line = matches!(prev, Some(Tok::KwAssert | Tok::KwNever))
-                    && significant
-                        .last()
-                        .is_some_and(|t| same_line(src, t.1.end, tok.span.start));
-                prev != Some(Tok::KwLet)
-                    && !check_on_same_line
-                    && next_significant(i + 1) == Some(Tok::Assign)
+        // Where a new statement starts, if at all: here, or (for `name =`)
+        // at the name just pushed.
+        let split_at = match kind {
+            Tok::KwTable if prev != Some(Tok::KwLet) => Some(significant.len()),
+            Tok::KwTable => None,
+            k if k.starts_statement() => Some(significant.len()),
+            Tok::Assign => {
+                let n = significant.len();
+                let name = significant[chunk_start..].last().copied();
+                let before = (n > chunk_start + 1).then(|| significant[n - 2]);
+                match (name, before) {
+                    (Some((k, name_span)), before) if k == Tok::Ident || k.is_keyword() => {
+                        let before_kind = before.map(|b| b.0);
+                        // After `assert` or `never`, `x = y` on the same line is a
+                        // mistyped comparison, reported there, not a definition.
+                        let comparison = matches!(before_kind, Some(Tok::KwAssert | Tok::KwNever))
+                            && before.is_some_and(|b| same_line(src, b.1.end, name_span.start));
+                        (before_kind != Some(Tok::KwLet) && !comparison).then_some(n - 1)
+                    }
+                    _ => None,
+                }
             }
-            _ => false,
+            _ => None,
         };
-        if starts {
-            if significant.len() > chunk_start {
-                chunks.push(chunk_start..significant.len());
+        if let Some(at) = split_at {
+            if at > chunk_start {
+                chunks.push(chunk_start..at);
             }
-            chunk_start = significant.len();
+            chunk_start = at;
             awaiting_body = false;
             body_depth = 0;
         }
-        match tok.kind {
+        match kind {
             Tok::KwTable | Tok::KwExpect => awaiting_body = true,
             Tok::LBrace if awaiting_body || body_depth > 0 => {
                 awaiting_body = false;
@@ -163,15 +178,13 @@ fn split_statements(src: &str, tokens: &[Token]) -> Split {
             }
             Tok::RBrace if body_depth > 0 => {
                 body_depth -= 1;
-                if let Some(last) = significant.last() {
-                    if last.0 == Tok::RowEnd {
-                        significant.pop();
-                    }
+                if significant.last().is_some_and(|t| t.0 == Tok::RowEnd) {
+                    significant.pop();
                 }
             }
             _ => {}
         }
-        significant.push((tok.kind, (tok.span.start..tok.span.end).into()));
+        significant.push((kind, (range.start..range.end).into()));
     }
     if significant.len() > chunk_start {
         chunks.push(chunk_start..significant.len());
@@ -219,19 +232,18 @@ fn too_deep(toks: &[(Tok, SimpleSpan)]) -> Option<SimpleSpan> {
     None
 }
 
-fn parse_statement<'t, P>(
+type Tokens<'t> = chumsky::input::MappedInput<'t, Tok, SimpleSpan, &'t [(Tok, SimpleSpan)]>;
+
+fn parse_statement<'t, F, R>(
     src: &'t str,
     toks: &'t [(Tok, SimpleSpan)],
-    statement: &P,
+    fast: &F,
+    rich: &R,
     errors: &mut Vec<SyntaxError>,
 ) -> Item
 where
-    P: Parser<
-            't,
-            chumsky::input::MappedInput<'t, Tok, SimpleSpan, &'t [(Tok, SimpleSpan)]>,
-            ItemKind,
-            grammar::Extra<'t>,
-        >,
+    F: Parser<'t, Tokens<'t>, ItemKind, extra::Err<EmptyErr>>,
+    R: Parser<'t, Tokens<'t>, ItemKind, extra::Err<Rich<'t, Tok, SimpleSpan>>>,
 {
     let first = toks[0];
     let last_end = toks
@@ -261,9 +273,14 @@ where
         return error_item;
     }
     let eoi: SimpleSpan = (last_end..last_end).into();
-    let (out, errs) = statement
-        .parse(toks.split_token_span(eoi))
-        .into_output_errors();
+    if let Ok(kind) = fast.parse(toks.split_token_span(eoi)).into_result() {
+        return Item {
+            kind,
+            span,
+            trivia: Trivia::default(),
+        };
+    }
+    let (out, errs) = rich.parse(toks.split_token_span(eoi)).into_output_errors();
     let at_file_end = src[last_end..].trim().is_empty() || {
         // Only comments follow.
         src[last_end..]

@@ -31,7 +31,8 @@ fn expr() -> impl Strategy<Value = String> {
             (inner.clone(), gap()).prop_map(|(e, g)| format!("({g}{e}{g})")),
             // Operands of a binary operator are parenthesized, so any mix of
             // operators is valid.
-            (inner.clone(), op, inner, gap()).prop_map(|(a, o, b, g)| format!("({a}){g}{o}{g}({b})")),
+            (inner.clone(), op, inner, gap())
+                .prop_map(|(a, o, b, g)| format!("({a}){g}{o}{g}({b})")),
         ]
     })
 }
@@ -41,16 +42,21 @@ fn names(min: usize) -> impl Strategy<Value = String> {
 }
 
 fn cells(n: usize) -> impl Strategy<Value = String> {
-    (proptest::collection::vec(prop::sample::select(vec!['0', '1', '-']), n), any::<bool>()).prop_map(
-        |(c, spaced)| {
+    (
+        proptest::collection::vec(prop::sample::select(vec!['0', '1', '-']), n),
+        any::<bool>(),
+    )
+        .prop_map(|(c, spaced)| {
             let strs: Vec<String> = c.iter().map(|c| c.to_string()).collect();
             strs.join(if spaced { " " } else { "" })
-        },
-    )
+        })
 }
 
 fn comment() -> impl Strategy<Value = String> {
-    prop_oneof![Just(String::new()), "[a-z ]{0,10}".prop_map(|t| format!("  # {t}"))]
+    prop_oneof![
+        Just(String::new()),
+        "[a-z ]{0,10}".prop_map(|t| format!("  # {t}"))
+    ]
 }
 
 fn table(kw: &'static str) -> impl Strategy<Value = String> {
@@ -62,7 +68,11 @@ fn table(kw: &'static str) -> impl Strategy<Value = String> {
             comment(),
         )
             .prop_map(move |(ins, outs, rows, open)| {
-                let mut s = format!("{kw} ({} -> {}) {{{open}\n", ins.join(", "), outs.join(", "));
+                let mut s = format!(
+                    "{kw} ({} -> {}) {{{open}\n",
+                    ins.join(", "),
+                    outs.join(", ")
+                );
                 for (i, o, c) in rows {
                     s.push_str(&format!("  {i} -> {o}{c}\n"));
                 }
@@ -73,8 +83,14 @@ fn table(kw: &'static str) -> impl Strategy<Value = String> {
 }
 
 fn statement() -> impl Strategy<Value = String> {
-    let num = prop_oneof![(0u64..16).prop_map(|n| n.to_string()), (0u64..16).prop_map(|n| format!("0x{n:X}"))];
-    let entry = prop_oneof![num.clone(), (num.clone(), num).prop_map(|(a, b)| format!("{a}..{b}"))];
+    let num = prop_oneof![
+        (0u64..16).prop_map(|n| n.to_string()),
+        (0u64..16).prop_map(|n| format!("0x{n:X}"))
+    ];
+    let entry = prop_oneof![
+        num.clone(),
+        (num.clone(), num).prop_map(|(a, b)| format!("{a}..{b}"))
+    ];
     let list = proptest::collection::vec(entry, 0..4).prop_map(|v| v.join(", "));
     prop_oneof![
         names(1).prop_map(|n| format!("input {n}")),
@@ -83,7 +99,13 @@ fn statement() -> impl Strategy<Value = String> {
         (name(), expr()).prop_map(|(n, e)| format!("let {n} = {e}")),
         expr().prop_map(|e| format!("never {e}")),
         expr().prop_map(|e| format!("assert {e}")),
-        (name(), prop::sample::select(vec!["on", "off"]), list.clone(), list, names(1))
+        (
+            name(),
+            prop::sample::select(vec!["on", "off"]),
+            list.clone(),
+            list,
+            names(1)
+        )
             .prop_map(|(n, k, l, d, o)| format!("{n} = {k}({l}) dc({d}) over ({o})")),
         table("table"),
         table("let table"),
