@@ -143,10 +143,10 @@ fn extend_chain(lhs: Expr, op: OpToken, rhs: Expr) -> Expr {
 fn unchainable(e: &Expr) -> Option<(OpToken, OpToken, OpToken)> {
     match &e.kind {
         ExprKind::Chain { operands, ops } => {
-            if ops.len() > 1 {
-                if let Some(bad) = ops.iter().find(|o| !o.op.chains()) {
-                    return Some((*bad, ops[0], ops[1]));
-                }
+            if ops.len() > 1
+                && let Some(bad) = ops.iter().find(|o| !o.op.chains())
+            {
+                return Some((*bad, ops[0], ops[1]));
             }
             operands.iter().find_map(unchainable)
         }
@@ -430,9 +430,8 @@ where
         .collect::<Vec<Vec<Cell>>>()
         .map(|v| v.into_iter().flatten().collect::<Vec<Cell>>());
     let cell_row = cells
-        .clone()
         .then_ignore(just(Tok::Arrow))
-        .then(cells.clone())
+        .then(cells)
         .map(|(inputs, outputs)| RowKind::Cells { inputs, outputs });
     let unlisted = just(Tok::KwUnlisted)
         .map_with(|_, e| sp(e.span()))
@@ -465,11 +464,7 @@ where
                 }),
         ));
     let row_ends = just(Tok::RowEnd).repeated();
-    let rows = row_ends.clone().ignore_then(
-        row.then_ignore(row_ends.clone())
-            .repeated()
-            .collect::<Vec<_>>(),
-    );
+    let rows = row_ends.ignore_then(row.then_ignore(row_ends).repeated().collect::<Vec<_>>());
     header
         .then(rows.delimited_by(just(Tok::LBrace), just(Tok::RBrace)))
         .map(|((inputs, outputs), rows)| Table {

@@ -232,13 +232,13 @@ pub fn lex(src: &str) -> Vec<Token> {
         let range = lexer.span();
         let span = Span::new(range.start, range.end);
         let kind = result.unwrap_or(TokenKind::Error);
-        if kind == TokenKind::Error {
-            if let Some(last) = out.last_mut() {
-                if last.kind == TokenKind::Error && last.span.end == span.start {
-                    last.span.end = span.end;
-                    continue;
-                }
-            }
+        if kind == TokenKind::Error
+            && let Some(last) = out.last_mut()
+            && last.kind == TokenKind::Error
+            && last.span.end == span.start
+        {
+            last.span.end = span.end;
+            continue;
         }
         out.push(Token { kind, span });
     }

@@ -128,11 +128,12 @@ fn split_statements(src: &str) -> Split {
                 continue;
             }
             Tok::Error => {
-                if let Some(last) = significant.last_mut() {
-                    if last.0 == Tok::Error && last.1.end == range.start {
-                        last.1.end = range.end;
-                        continue;
-                    }
+                if let Some(last) = significant.last_mut()
+                    && last.0 == Tok::Error
+                    && last.1.end == range.start
+                {
+                    last.1.end = range.end;
+                    continue;
                 }
             }
             _ => {}
@@ -257,7 +258,8 @@ where
         span,
         trivia: Trivia::default(),
     };
-    if !first.0.starts_statement() && !(toks.len() > 1 && toks[1].0 == Tok::Assign) {
+    let defines = toks.len() > 1 && toks[1].0 == Tok::Assign;
+    if !(first.0.starts_statement() || defines) {
         errors.push(not_a_statement(src, first));
         return error_item;
     }
@@ -396,11 +398,11 @@ fn convert_error(
         }
         RichReason::ExpectedFound { expected, found } => (expected, found.as_deref().copied()),
     };
-    if found == Some(Tok::Foreign) {
-        if let Some(h) = foreign_help(&src[span.start..span.end]) {
-            out.message = h.to_string();
-            return out;
-        }
+    if found == Some(Tok::Foreign)
+        && let Some(h) = foreign_help(&src[span.start..span.end])
+    {
+        out.message = h.to_string();
+        return out;
     }
     let mut words: Vec<String> = Vec::new();
     let mut push = |w: String| {
@@ -439,7 +441,7 @@ fn convert_error(
             "unexpected character{} `{shown}`",
             if text.chars().count() > 1 { "s" } else { "" }
         );
-        if text.chars().any(|c| !c.is_ascii()) {
+        if !text.is_ascii() {
             out.help = Some("names use ASCII letters, digits and `_` only".to_string());
         }
         return out;
@@ -449,17 +451,17 @@ fn convert_error(
         out.help = Some("to compare two signals, write `==`; to define a signal, start a new statement `name = ...`".to_string());
         return out;
     }
-    if wants_close_brace && found.is_none() {
-        if let Some(open) = unclosed(before_error(toks, span), Tok::LBrace, Tok::RBrace) {
-            out.message =
-                "expected `}` to close the table, found the end of the statement".to_string();
-            out.help = Some("add `}` after the last row".to_string());
-            out.related.push((
-                Span::new(open.start, open.end),
-                "this `{` is not closed".to_string(),
-            ));
-            return out;
-        }
+    if wants_close_brace
+        && found.is_none()
+        && let Some(open) = unclosed(before_error(toks, span), Tok::LBrace, Tok::RBrace)
+    {
+        out.message = "expected `}` to close the table, found the end of the statement".to_string();
+        out.help = Some("add `}` after the last row".to_string());
+        out.related.push((
+            Span::new(open.start, open.end),
+            "this `{` is not closed".to_string(),
+        ));
+        return out;
     }
     if found.is_some() && words == ["the end of the statement"] {
         out.message = format!(
@@ -481,13 +483,15 @@ fn convert_error(
     } else {
         format!("expected {}, found {found_text}", join_or(&words))
     };
-    if let Some(k) = found.filter(|k| k.is_keyword()) {
-        if words.iter().any(|w| w == "an expression") && !is_binary_op(k) && k != Tok::KwNot {
-            out.help = Some(format!(
-                "`{}` is a keyword and cannot be used as a signal name",
-                &src[span.start..span.end]
-            ));
-        }
+    if let Some(k) = found.filter(|k| k.is_keyword())
+        && words.iter().any(|w| w == "an expression")
+        && !is_binary_op(k)
+        && k != Tok::KwNot
+    {
+        out.help = Some(format!(
+            "`{}` is a keyword and cannot be used as a signal name",
+            &src[span.start..span.end]
+        ));
     }
     if found.is_some()
         && expected
@@ -498,14 +502,12 @@ fn convert_error(
     }
     // Point at the opening delimiter that is never closed.
     let before = before_error(toks, span);
-    if wants_close_paren {
-        if let Some(open) = unclosed(before, Tok::LParen, Tok::RParen) {
-            out.help = Some("add `)` to close the `(`".to_string());
-            out.related.push((
-                Span::new(open.start, open.end),
-                "this `(` is not closed".to_string(),
-            ));
-        }
+    if wants_close_paren && let Some(open) = unclosed(before, Tok::LParen, Tok::RParen) {
+        out.help = Some("add `)` to close the `(`".to_string());
+        out.related.push((
+            Span::new(open.start, open.end),
+            "this `(` is not closed".to_string(),
+        ));
     }
     if wants_arrow && out.help.is_none() {
         out.help = Some(

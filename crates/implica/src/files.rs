@@ -109,3 +109,62 @@ pub fn write_atomic(path: &Path, expected: &[u8], contents: &[u8]) -> io::Result
     tmp.persist(path).map_err(|e| e.error)?;
     Ok(())
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn leftovers(dir: &Path) -> Vec<String> {
+        fs::read_dir(dir)
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .filter(|n| n.starts_with(".implica-"))
+            .collect()
+    }
+
+    #[test]
+    fn a_file_changed_meanwhile_is_not_overwritten() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("a.imp");
+        fs::write(&p, b"changed by someone else").unwrap();
+        let err = write_atomic(&p, b"what we read", b"formatted").unwrap_err();
+        assert!(err.to_string().contains("changed on disk"), "{err}");
+        assert_eq!(fs::read(&p).unwrap(), b"changed by someone else");
+        assert!(
+            leftovers(dir.path()).is_empty(),
+            "temporary file left behind"
+        );
+    }
+
+    #[test]
+    fn replaces_contents_and_keeps_permissions() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("a.imp");
+        fs::write(&p, b"old").unwrap();
+        #[cfg(unix)]
+        {
+            use std::os::unix::fs::PermissionsExt;
+            fs::set_permissions(&p, fs::Permissions::from_mode(0o604)).unwrap();
+        }
+        write_atomic(&p, b"old", b"new").unwrap();
+        assert_eq!(fs::read(&p).unwrap(), b"new");
+        #[cfg(unix)]
+        {
+            use std::os::unix::fs::PermissionsExt;
+            assert_eq!(
+                fs::metadata(&p).unwrap().permissions().mode() & 0o777,
+                0o604
+            );
+        }
+        assert!(leftovers(dir.path()).is_empty());
+    }
+
+    #[test]
+    fn a_missing_file_is_an_error_and_nothing_is_created() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("gone.imp");
+        assert!(write_atomic(&p, b"", b"x").is_err());
+        assert!(!p.exists());
+        assert!(leftovers(dir.path()).is_empty());
+    }
+}

@@ -1,0 +1,314 @@
+//! The `implica` binary, run as a user or a CI job would: exit codes,
+//! output formats, and file handling.
+
+use serde_json::Value;
+use std::fs;
+use std::io::Write;
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output, Stdio};
+
+fn implica(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_implica"))
+        .args(args)
+        .env_remove("NO_COLOR")
+        .output()
+        .expect("run implica")
+}
+
+fn implica_stdin(args: &[&str], input: &[u8]) -> Output {
+    let mut child = Command::new(env!("CARGO_BIN_EXE_implica"))
+        .args(args)
+        .stdin(Stdio::piped())
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .expect("run implica");
+    child.stdin.take().unwrap().write_all(input).unwrap();
+    child.wait_with_output().unwrap()
+}
+
+fn root() -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
+}
+
+fn stdout(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stdout).into_owned()
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stderr).into_owned()
+}
+
+fn temp_file(dir: &tempfile::TempDir, name: &str, contents: &[u8]) -> PathBuf {
+    let p = dir.path().join(name);
+    fs::write(&p, contents).unwrap();
+    p
+}
+
+const BROKEN: &str = "input a, b\noutput y\ny = (a & b\n";
+
+#[test]
+fn check_examples_passes() {
+    let examples = root().join("examples");
+    let out = implica(&["check", examples.to_str().unwrap()]);
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "{}{}",
+        stdout(&out),
+        stderr(&out)
+    );
+    assert!(stdout(&out).contains("0 errors"), "{}", stdout(&out));
+}
+
+#[test]
+fn fmt_check_examples_passes() {
+    let examples = root().join("examples");
+    let out = implica(&["fmt", "--check", examples.to_str().unwrap()]);
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "{}{}",
+        stdout(&out),
+        stderr(&out)
+    );
+}
+
+#[test]
+fn json_reports_syntax_errors_with_exact_ranges_and_exits_1() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "broken.imp", BROKEN.as_bytes());
+    let out = implica(&["check", "--format", "json", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    let doc: Value = serde_json::from_slice(&out.stdout).expect("JSON output");
+    let diags = doc["diagnostics"].as_array().unwrap();
+    assert_eq!(diags.len(), 1);
+    let d = &diags[0];
+    assert_eq!(d["file"], f.to_str().unwrap());
+    assert_eq!(d["rule"], "syntax-error");
+    assert_eq!(d["severity"], "error");
+    assert_eq!(d["message"], "expected `)`, found the end of the file");
+    // The error is at the end of `y = (a & b`: line 3, after column 10.
+    assert_eq!(d["range"]["start"]["line"], 3);
+    assert_eq!(d["range"]["start"]["column"], 11);
+    assert_eq!(d["range"]["end"]["column"], 11);
+    assert_eq!(d["related"][0]["range"]["start"]["column"], 5);
+    assert_eq!(d["fixes"], serde_json::json!([]));
+    assert_eq!(doc["summary"]["errors"], 1);
+    assert_eq!(doc["summary"]["files"], 1);
+}
+
+#[test]
+fn json_columns_count_unicode_scalar_values() {
+    let dir = tempfile::tempdir().unwrap();
+    // `é` is two bytes but one column; the error is the `@` after it.
+    let f = temp_file(
+        &dir,
+        "u.imp",
+        "output y # é\ny = 1 # é\ny2 = é @\n".as_bytes(),
+    );
+    let out = implica(&["check", "--format", "json", f.to_str().unwrap()]);
+    let doc: Value = serde_json::from_slice(&out.stdout).unwrap();
+    let d = &doc["diagnostics"][0];
+    assert_eq!(d["range"]["start"]["line"], 3);
+    assert_eq!(d["range"]["start"]["column"], 6);
+    assert_eq!(d["range"]["end"]["column"], 7);
+}
+
+#[test]
+fn human_output_shows_the_snippet_rule_and_hint() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "broken.imp", BROKEN.as_bytes());
+    let out = implica(&["check", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    let text = stdout(&out).replace(f.to_str().unwrap(), "broken.imp");
+    // Not a terminal: no colour codes.
+    assert!(!text.contains('\u{1b}'));
+    insta::assert_snapshot!(text);
+}
+
+#[test]
+fn a_missing_file_exits_2_and_the_others_are_still_checked() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "broken.imp", BROKEN.as_bytes());
+    let missing = dir.path().join("nope.imp");
+    let out = implica(&[
+        "check",
+        "--format",
+        "json",
+        missing.to_str().unwrap(),
+        f.to_str().unwrap(),
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(
+        stderr(&out).contains("nope.imp: no such file or directory"),
+        "{}",
+        stderr(&out)
+    );
+    let doc: Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(doc["summary"]["files"], 1);
+    assert_eq!(doc["summary"]["unreadable"], 1);
+    assert_eq!(doc["diagnostics"].as_array().unwrap().len(), 1);
+}
+
+#[test]
+fn directories_are_searched_for_imp_files_only() {
+    let dir = tempfile::tempdir().unwrap();
+    fs::create_dir(dir.path().join("sub")).unwrap();
+    temp_file(&dir, "sub/bad.imp", BROKEN.as_bytes());
+    temp_file(&dir, "notes.txt", b"y = (");
+    let out = implica(&["check", "--format", "json", dir.path().to_str().unwrap()]);
+    let doc: Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(doc["summary"]["files"], 1);
+    assert!(
+        doc["diagnostics"][0]["file"]
+            .as_str()
+            .unwrap()
+            .ends_with("bad.imp")
+    );
+}
+
+#[test]
+fn standard_input_is_checked_with_dash() {
+    let out = implica_stdin(&["check", "--format", "json", "-"], BROKEN.as_bytes());
+    assert_eq!(out.status.code(), Some(1));
+    let doc: Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(doc["diagnostics"][0]["file"], "<stdin>");
+}
+
+#[test]
+fn invalid_utf8_and_binary_files_are_reported_not_fatal() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "bin.imp", b"input a\n\x00\xff\xfe\x01 output y\n");
+    let out = implica(&["check", "--format", "json", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    let doc: Value = serde_json::from_slice(&out.stdout).unwrap();
+    let first = &doc["diagnostics"][0];
+    assert!(
+        first["message"].as_str().unwrap().contains("byte 9"),
+        "{first}"
+    );
+    assert_eq!(first["range"]["start"]["line"], 2);
+    // fmt refuses it and leaves it untouched.
+    let out = implica(&["fmt", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(2));
+    assert_eq!(
+        fs::read(&f).unwrap(),
+        b"input a\n\x00\xff\xfe\x01 output y\n"
+    );
+}
+
+#[test]
+fn empty_file_is_clean() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "empty.imp", b"");
+    assert_eq!(
+        implica(&["check", f.to_str().unwrap()]).status.code(),
+        Some(0)
+    );
+    assert_eq!(
+        implica(&["fmt", "--check", f.to_str().unwrap()])
+            .status
+            .code(),
+        Some(0)
+    );
+}
+
+#[test]
+fn fmt_check_lists_files_that_would_change_and_fmt_rewrites_them() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "a.imp", b"input a,b\noutput y\ny=a&b   # keep me\n");
+    let out = implica(&["fmt", "--check", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    assert!(stdout(&out).contains(&format!("would reformat {}", f.display())));
+    assert_eq!(
+        fs::read_to_string(&f).unwrap(),
+        "input a,b\noutput y\ny=a&b   # keep me\n"
+    );
+    let out = implica(&["fmt", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
+    assert_eq!(
+        fs::read_to_string(&f).unwrap(),
+        "input  a, b\noutput y\ny = a & b  # keep me\n"
+    );
+    assert_eq!(
+        implica(&["fmt", "--check", f.to_str().unwrap()])
+            .status
+            .code(),
+        Some(0)
+    );
+}
+
+#[test]
+fn fmt_refuses_files_with_syntax_errors() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "b.imp", BROKEN.as_bytes());
+    let out = implica(&["fmt", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(stderr(&out).contains("fix the syntax errors first"));
+    assert!(stderr(&out).contains("syntax-error"));
+    assert_eq!(fs::read_to_string(&f).unwrap(), BROKEN);
+}
+
+#[test]
+fn fmt_dash_formats_standard_input_to_standard_output() {
+    let out = implica_stdin(&["fmt", "-"], b"output y\ny=1\n");
+    assert_eq!(out.status.code(), Some(0));
+    assert_eq!(stdout(&out), "output y\ny = 1\n");
+}
+
+#[cfg(unix)]
+#[test]
+fn fmt_keeps_permissions_and_leaves_the_original_when_the_write_fails() {
+    use std::os::unix::fs::PermissionsExt;
+    let dir = tempfile::tempdir().unwrap();
+    let f = temp_file(&dir, "p.imp", b"output y\ny=1\n");
+    fs::set_permissions(&f, fs::Permissions::from_mode(0o640)).unwrap();
+    assert_eq!(
+        implica(&["fmt", f.to_str().unwrap()]).status.code(),
+        Some(0)
+    );
+    assert_eq!(
+        fs::metadata(&f).unwrap().permissions().mode() & 0o777,
+        0o640
+    );
+
+    // A write that fails (file size limit 0, which binds root too): the
+    // original stays as it was and no temporary file is left.
+    let g = temp_file(&dir, "q.imp", b"output y\ny=1\n");
+    let script = format!(
+        "trap '' XFSZ; ulimit -f 0; exec '{}' fmt '{}'",
+        env!("CARGO_BIN_EXE_implica"),
+        g.display()
+    );
+    let out = Command::new("sh").arg("-c").arg(&script).output().unwrap();
+    assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
+    assert!(stderr(&out).contains("cannot write"), "{}", stderr(&out));
+    assert_eq!(fs::read_to_string(&g).unwrap(), "output y\ny=1\n");
+    let left: Vec<_> = fs::read_dir(dir.path())
+        .unwrap()
+        .filter(|e| {
+            e.as_ref()
+                .unwrap()
+                .file_name()
+                .to_string_lossy()
+                .starts_with(".implica-")
+        })
+        .collect();
+    assert!(left.is_empty(), "temporary file left behind");
+}
+
+#[test]
+fn help_is_available_on_every_subcommand() {
+    for sub in ["check", "fmt"] {
+        let out = implica(&[sub, "--help"]);
+        assert_eq!(out.status.code(), Some(0));
+        assert!(stdout(&out).contains("Usage: implica"), "{sub}");
+    }
+    // A usage error exits 2.
+    assert_eq!(implica(&["check"]).status.code(), Some(2));
+    assert_eq!(
+        implica(&["check", "--format", "xml", "x"]).status.code(),
+        Some(2)
+    );
+}
