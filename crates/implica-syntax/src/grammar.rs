@@ -373,6 +373,37 @@ where
                     ));
                 }
             }
+            // Row numbers must exist over the listed signals.
+            let rows = if over.len() >= 64 { u64::MAX } else { (1u64 << over.len()) - 1 };
+            for part in &parts {
+                for entry in &part.entries {
+                    let (lo, hi) = match entry {
+                        TermEntry::Single(n) => (n, n),
+                        TermEntry::Range(a, b) => (a, b),
+                    };
+                    if let (Some(l), Some(h)) = (lo.value, hi.value) {
+                        if l > h {
+                            emitter.emit(custom(
+                                lo.span.to(hi.span),
+                                format!("the range `{}..{}` is empty: write the smaller row number first", lo.text, hi.text),
+                            ));
+                        }
+                    }
+                    for n in [lo, hi] {
+                        if n.value.is_some_and(|v| v > rows) {
+                            emitter.emit(custom(
+                                n.span,
+                                format!(
+                                    "row {} does not exist: over {} signal{}, the rows are 0 to {rows}",
+                                    n.text,
+                                    over.len(),
+                                    if over.len() == 1 { "" } else { "s" }
+                                ),
+                            ));
+                        }
+                    }
+                }
+            }
             TermList { parts, over, span }
         })
 }
@@ -467,6 +498,16 @@ where
     let rows = row_ends.ignore_then(row.then_ignore(row_ends).repeated().collect::<Vec<_>>());
     header
         .then(rows.delimited_by(just(Tok::LBrace), just(Tok::RBrace)))
+        .validate(|((inputs, outputs), rows): ((Vec<Name>, Vec<Name>), Vec<Row>), _, emitter| {
+            let mut unlisted = rows.iter().filter(|r| matches!(r.kind, RowKind::Unlisted { .. }));
+            if let (Some(_), Some(second)) = (unlisted.next(), unlisted.next()) {
+                emitter.emit(custom(
+                    second.span,
+                    "a table has at most one `unlisted` row; remove this one or merge it with the first",
+                ));
+            }
+            ((inputs, outputs), rows)
+        })
         .map(|((inputs, outputs), rows)| Table {
             let_span: None,
             inputs,
