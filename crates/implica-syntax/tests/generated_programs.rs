@@ -87,10 +87,9 @@ fn statement() -> impl Strategy<Value = String> {
         (0u64..16).prop_map(|n| n.to_string()),
         (0u64..16).prop_map(|n| format!("0x{n:X}"))
     ];
-    let entry = prop_oneof![
-        num.clone(),
-        (num.clone(), num).prop_map(|(a, b)| format!("{a}..{b}"))
-    ];
+    // Row numbers below 16, over four signals; ranges ascending.
+    let range = (0u64..16, 0u64..16).prop_map(|(a, b)| format!("{}..{}", a.min(b), a.max(b)));
+    let entry = prop_oneof![num, range];
     let list = proptest::collection::vec(entry, 0..4).prop_map(|v| v.join(", "));
     prop_oneof![
         names(1).prop_map(|n| format!("input {n}")),
@@ -104,7 +103,7 @@ fn statement() -> impl Strategy<Value = String> {
             prop::sample::select(vec!["on", "off"]),
             list.clone(),
             list,
-            names(1)
+            proptest::collection::vec(name(), 4).prop_map(|v| v.join(", "))
         )
             .prop_map(|(n, k, l, d, o)| format!("{n} = {k}({l}) dc({d}) over ({o})")),
         table("table"),
