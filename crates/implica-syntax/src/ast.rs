@@ -24,8 +24,8 @@ pub struct SourceFile {
 /// A comment, `#` to the end of the line.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Comment {
-    /// Text including the `#`, without the line break.
-    pub text: String,
+    /// Text including the `#`, without the line break or trailing spaces.
+    pub text: SmolStr,
     pub span: Span,
 }
 

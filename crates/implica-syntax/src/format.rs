@@ -39,7 +39,7 @@ pub fn format_file(src: &str, file: &SourceFile) -> String {
     }
     for (blank, c) in &file.trailing_comments {
         out.blank_if(*blank);
-        out.line(c.text.clone());
+        out.line(c.text.to_string());
     }
     out.finish()
 }
@@ -161,7 +161,7 @@ fn format_block(src: &str, block: &[Item], out: &mut Out) {
     for (item, mut lines) in block.iter().zip(rendered) {
         for (blank, c) in &item.trivia.leading {
             out.blank_if(*blank);
-            out.line(c.text.clone());
+            out.line(c.text.to_string());
         }
         out.blank_if(item.trivia.blank_before);
         if let Some(c) = &item.trivia.trailing {

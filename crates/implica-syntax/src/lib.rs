@@ -20,7 +20,7 @@ mod parser;
 
 pub use grammar::parse_number;
 pub use line_index::LineIndex;
-pub use parser::{MAX_NESTING, decode, parse};
+pub use parser::{MAX_NESTING, decode, parse, parse_reference};
 
 /// A byte range `start..end` in the source text.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Default)]

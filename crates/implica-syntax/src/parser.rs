@@ -27,14 +27,32 @@ pub const MAX_NESTING: usize = 128;
 
 /// Parses `src` into a syntax tree and the list of every syntax error.
 pub fn parse(src: &str) -> (SourceFile, Vec<SyntaxError>) {
+    parse_with(src, true)
+}
+
+/// Parses with the combinator grammar alone, without the hand-written fast
+/// path for expressions. It must give exactly what [`parse`] gives; tests
+/// and the fuzzer compare the two.
+#[doc(hidden)]
+pub fn parse_reference(src: &str) -> (SourceFile, Vec<SyntaxError>) {
+    parse_with(src, false)
+}
+
+fn parse_with(src: &str, fast_path: bool) -> (SourceFile, Vec<SyntaxError>) {
     let split = split_statements(src);
-    let fast = grammar::statement::<_, EmptyErr>(src);
-    let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>>(src);
+    let fast = grammar::statement::<_, EmptyErr, _>(src, grammar::fast_expr(src));
+    let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>, _>(src, grammar::expr(src));
     let mut errors = Vec::new();
     let mut items = Vec::with_capacity(split.chunks.len());
     for chunk in &split.chunks {
         let toks = &split.significant[chunk.clone()];
-        items.push(parse_statement(src, toks, &fast, &rich, &mut errors));
+        items.push(parse_statement(
+            src,
+            toks,
+            fast_path.then_some(&fast),
+            &rich,
+            &mut errors,
+        ));
     }
     let mut file = SourceFile {
         items,
@@ -116,7 +134,7 @@ fn split_statements(src: &str) -> Split {
                 // Trailing spaces and a carriage return are not part of the comment.
                 let text = src[range.clone()].trim_end();
                 comments.push(Comment {
-                    text: text.to_string(),
+                    text: SmolStr::new(text),
                     span: Span::new(range.start, range.start + text.len()),
                 });
                 continue;
@@ -238,7 +256,7 @@ type Tokens<'t> = chumsky::input::MappedInput<'t, Tok, SimpleSpan, &'t [(Tok, Si
 fn parse_statement<'t, F, R>(
     src: &'t str,
     toks: &'t [(Tok, SimpleSpan)],
-    fast: &F,
+    fast: Option<&F>,
     rich: &R,
     errors: &mut Vec<SyntaxError>,
 ) -> Item
@@ -275,7 +293,7 @@ where
         return error_item;
     }
     let eoi: SimpleSpan = (last_end..last_end).into();
-    if let Ok(kind) = fast.parse(toks.split_token_span(eoi)).into_result() {
+    if let Some(Ok(kind)) = fast.map(|f| f.parse(toks.split_token_span(eoi)).into_result()) {
         return Item {
             kind,
             span,

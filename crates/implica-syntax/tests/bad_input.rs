@@ -2,7 +2,7 @@
 //! None of it may panic, hang or overflow the stack.
 
 use implica_syntax::ast::{ExprKind, ItemKind, Rhs};
-use implica_syntax::{MAX_NESTING, decode, format::format_source, parse};
+use implica_syntax::{MAX_NESTING, decode, format::format_source, parse, parse_reference};
 use proptest::prelude::*;
 
 /// Runs `f` on a thread with a small stack, so that a recursion that grows
@@ -49,6 +49,7 @@ proptest! {
     )) {
         let src: String = words.concat();
         assert_spans_valid(&src);
+        prop_assert_eq!(parse(&src), parse_reference(&src), "fast path disagrees on {:?}", src);
         if let Ok(once) = format_source(&src) {
             prop_assert_eq!(format_source(&once).ok(), Some(once.clone()));
         }

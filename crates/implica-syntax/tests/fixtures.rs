@@ -4,7 +4,7 @@
 
 mod common;
 
-use implica_syntax::{dump, parse};
+use implica_syntax::{dump, parse, parse_reference};
 
 #[test]
 fn syntax_fixtures() {
@@ -12,6 +12,15 @@ fn syntax_fixtures() {
         let name = path.file_stem().unwrap().to_string_lossy().to_string();
         let src = std::fs::read_to_string(&path).unwrap();
         let (tree, errors) = parse(&src);
+        let (ref_tree, ref_errors) = parse_reference(&src);
+        assert_eq!(
+            tree, ref_tree,
+            "{name}: fast path and reference grammar disagree"
+        );
+        assert_eq!(
+            errors, ref_errors,
+            "{name}: fast path and reference grammar disagree"
+        );
         if name.starts_with("err_") {
             assert!(!errors.is_empty(), "{name}: expected syntax errors");
         } else {

@@ -5,7 +5,7 @@
 
 use implica_syntax::dump::dump_structure;
 use implica_syntax::format::format_source;
-use implica_syntax::parse;
+use implica_syntax::{parse, parse_reference};
 use proptest::prelude::*;
 
 const NAMES: [&str; 6] = ["a", "b", "c", "door_ok", "t1", "x_2"];
@@ -135,6 +135,7 @@ proptest! {
     #[test]
     fn generated_programs_roundtrip(src in program()) {
         let (before, errors) = parse(&src);
+        prop_assert_eq!(&(before.clone(), errors.clone()), &parse_reference(&src), "fast path disagrees");
         prop_assert!(errors.is_empty(), "errors {:?} in\n{}", errors, src);
         let once = format_source(&src).expect("parses");
         let twice = format_source(&once).expect("formatted text parses");

@@ -191,6 +191,8 @@ proptest! {
     fn parsed_grouping_matches_the_model(m in model(), extra in proptest::collection::vec(any::<bool>(), 64)) {
         let text = print(&m, &mut extra.into_iter());
         let e = parse_expr(&text);
+        let src = format!("y = {text}\n");
+        prop_assert_eq!(parse(&src), implica_syntax::parse_reference(&src));
         for env in 0..16 {
             prop_assert_eq!(eval(&e, env), eval_model(&m, env), "{} at {:04b}", text, env);
         }
