@@ -5,6 +5,11 @@
 use divan::Bencher;
 use divan::counter::BytesCount;
 
+// The allocator the `implica` binary ships with, so that the figures are
+// those of the tool as used.
+#[global_allocator]
+static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
 fn main() {
     divan::main();
 }
