@@ -503,14 +503,13 @@ where
                         TermEntry::Single(n) => (n, n),
                         TermEntry::Range(a, b) => (a, b),
                     };
-                    if let (Some(l), Some(h)) = (lo.value, hi.value) {
-                        if l > h {
+                    if let (Some(l), Some(h)) = (lo.value, hi.value)
+                        && l > h {
                             emitter.emit(custom(
                                 lo.span.to(hi.span),
                                 format!("the range `{}..{}` is empty: write the smaller row number first", lo.text, hi.text),
                             ));
                         }
-                    }
                     for n in [lo, hi] {
                         if n.value.is_some_and(|v| v > rows) {
                             emitter.emit(custom(
