@@ -14,6 +14,8 @@ pub mod ast;
 pub mod dump;
 pub mod format;
 mod grammar;
+#[doc(hidden)]
+pub mod invariants;
 pub mod lexer;
 pub mod line_index;
 mod parser;
