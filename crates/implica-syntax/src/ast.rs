@@ -30,10 +30,19 @@ pub struct Comment {
 }
 
 /// Comments and blank lines attached to a statement or a table row.
+///
+/// Most statements have no comment, so the comments live behind one
+/// optional allocation and a statement without them costs 16 bytes here.
 #[derive(Debug, Clone, Default, PartialEq, Eq)]
 pub struct Trivia {
-    /// Whether at least one blank line precedes this node (or its leading comments).
+    /// Whether at least one blank line precedes this node (after its leading comments).
     pub blank_before: bool,
+    comments: Option<Box<TriviaComments>>,
+}
+
+/// The comments of a [`Trivia`].
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub struct TriviaComments {
     /// Full-line comments before the node, each with whether a blank line precedes it.
     pub leading: Vec<(bool, Comment)>,
     /// A comment at the end of the node's last line.
@@ -41,6 +50,28 @@ pub struct Trivia {
     /// Comments strictly inside the node (e.g. within a multi-line expression).
     /// The formatter keeps such a node as written.
     pub interior: Vec<Comment>,
+}
+
+impl Trivia {
+    /// Full-line comments before the node, each with whether a blank line precedes it.
+    pub fn leading(&self) -> &[(bool, Comment)] {
+        self.comments.as_ref().map_or(&[], |c| &c.leading)
+    }
+
+    /// The comment at the end of the node's last line.
+    pub fn trailing(&self) -> Option<&Comment> {
+        self.comments.as_ref().and_then(|c| c.trailing.as_ref())
+    }
+
+    /// Comments strictly inside the node.
+    pub fn interior(&self) -> &[Comment] {
+        self.comments.as_ref().map_or(&[], |c| &c.interior)
+    }
+
+    /// The comments, for adding to them.
+    pub fn comments_mut(&mut self) -> &mut TriviaComments {
+        self.comments.get_or_insert_with(Default::default)
+    }
 }
 
 /// A statement.
@@ -61,13 +92,13 @@ pub enum ItemKind {
     /// `x = ...` or `let x = ...`
     Define(Define),
     /// `table (a, b -> y) { ... }` or `let table ...`
-    Table(Table),
+    Table(Box<Table>),
     /// `never expr`
     Never(Expr),
     /// `assert expr`
     Assert(Expr),
     /// `expect (a, b -> y) { ... }`
-    Expect(Table),
+    Expect(Box<Table>),
     /// A statement that could not be parsed; its errors are in the error list.
     Error,
 }

@@ -50,7 +50,7 @@ impl Dumper {
     }
 
     fn trivia(&mut self, t: &Trivia, depth: usize) {
-        for (blank, c) in &t.leading {
+        for (blank, c) in t.leading() {
             let b = if *blank && self.blanks {
                 " (after blank)"
             } else {
@@ -68,14 +68,14 @@ impl Dumper {
     }
 
     fn trailing(&mut self, t: &Trivia, depth: usize) {
-        for c in &t.interior {
+        for c in t.interior() {
             self.line(
                 depth + 1,
                 &format!("interior comment {:?}", c.text),
                 Some(c.span),
             );
         }
-        if let Some(c) = &t.trailing {
+        if let Some(c) = t.trailing() {
             self.line(
                 depth + 1,
                 &format!("trailing comment {:?}", c.text),

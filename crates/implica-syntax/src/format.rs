@@ -75,7 +75,7 @@ impl Out {
 }
 
 fn starts_block(item: &Item) -> bool {
-    item.trivia.blank_before || item.trivia.leading.iter().any(|(b, _)| *b)
+    item.trivia.blank_before || item.trivia.leading().iter().any(|(b, _)| *b)
 }
 
 fn blocks(items: &[Item]) -> Vec<&[Item]> {
@@ -95,7 +95,7 @@ fn blocks(items: &[Item]) -> Vec<&[Item]> {
 
 fn kept_as_written(item: &Item) -> bool {
     matches!(item.kind, ItemKind::Error)
-        || !item.trivia.interior.is_empty()
+        || !item.trivia.interior().is_empty()
         || has_error_nodes(item)
 }
 
@@ -153,18 +153,18 @@ fn format_block(src: &str, block: &[Item], out: &mut Out) {
     let comment_col = block
         .iter()
         .zip(&rendered)
-        .filter(|(item, lines)| item.trivia.trailing.is_some() && lines.len() == 1)
+        .filter(|(item, lines)| item.trivia.trailing().is_some() && lines.len() == 1)
         .map(|(_, lines)| lines[0].chars().count())
         .max()
         .unwrap_or(0)
         + 2;
     for (item, mut lines) in block.iter().zip(rendered) {
-        for (blank, c) in &item.trivia.leading {
+        for (blank, c) in item.trivia.leading() {
             out.blank_if(*blank);
             out.line(c.text.to_string());
         }
         out.blank_if(item.trivia.blank_before);
-        if let Some(c) = &item.trivia.trailing {
+        if let Some(c) = item.trivia.trailing() {
             let single = lines.len() == 1;
             if let Some(last) = lines.last_mut() {
                 let col = if single {
@@ -390,14 +390,14 @@ fn render_table(kw: &str, t: &Table) -> Vec<String> {
         .rows
         .iter()
         .zip(&bodies)
-        .filter(|(r, _)| r.trivia.trailing.is_some())
+        .filter(|(r, _)| r.trivia.trailing().is_some())
         .map(|(_, b)| b.len())
         .max()
         .unwrap_or(0)
         + 2;
     let mut first = true;
     for (r, mut body) in t.rows.iter().zip(bodies) {
-        for (blank, c) in &r.trivia.leading {
+        for (blank, c) in r.trivia.leading() {
             if *blank && !first {
                 lines.push(String::new());
             }
@@ -407,7 +407,7 @@ fn render_table(kw: &str, t: &Table) -> Vec<String> {
         if r.trivia.blank_before && !first {
             lines.push(String::new());
         }
-        if let Some(c) = &r.trivia.trailing {
+        if let Some(c) = r.trivia.trailing() {
             pad_to(&mut body, comment_col);
             body.push_str(&c.text);
         }

@@ -669,7 +669,7 @@ where
         .map(|(let_span, body)| match body {
             either::Left(mut t) => {
                 t.let_span = Some(let_span);
-                ItemKind::Table(t)
+                ItemKind::Table(Box::new(t))
             }
             either::Right((target, rhs)) => ItemKind::Define(Define {
                 let_span: Some(let_span),
@@ -690,11 +690,11 @@ where
     let assert = just(Tok::KwAssert).ignore_then(expr).map(ItemKind::Assert);
     let expect = just(Tok::KwExpect)
         .ignore_then(table_body(src, false))
-        .map(ItemKind::Expect);
+        .map(|t| ItemKind::Expect(Box::new(t)));
     choice((
         decl,
         let_stmt,
-        table.map(ItemKind::Table),
+        table.map(|t| ItemKind::Table(Box::new(t))),
         never,
         assert,
         expect,

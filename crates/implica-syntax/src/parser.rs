@@ -39,27 +39,32 @@ pub fn parse_reference(src: &str) -> (SourceFile, Vec<SyntaxError>) {
 }
 
 fn parse_with(src: &str, fast_path: bool) -> (SourceFile, Vec<SyntaxError>) {
-    let split = split_statements(src);
-    let fast = grammar::statement::<_, EmptyErr, _>(src, grammar::fast_expr(src));
-    let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>, _>(src, grammar::expr(src));
     let mut errors = Vec::new();
-    let mut items = Vec::with_capacity(split.chunks.len());
-    for chunk in &split.chunks {
-        let toks = &split.significant[chunk.clone()];
-        items.push(parse_statement(
-            src,
-            toks,
-            fast_path.then_some(&fast),
-            &rich,
-            &mut errors,
-        ));
-    }
+    // At most one statement starts per line, mostly; reserving that many
+    // up front spares copying a long file's statements as the list grows
+    // (untouched capacity costs no memory).
+    let lines = src.bytes().filter(|&b| b == b'\n').count() + 1;
+    let mut items = Vec::with_capacity(lines);
+    let comments = split_statements(src, |toks, chunks| {
+        // Built per batch: the parsers borrow the batch's tokens.
+        let fast = grammar::statement::<_, EmptyErr, _>(src, grammar::fast_expr(src));
+        let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>, _>(src, grammar::expr(src));
+        for chunk in chunks {
+            items.push(parse_statement(
+                src,
+                &toks[chunk.clone()],
+                fast_path.then_some(&fast),
+                &rich,
+                &mut errors,
+            ));
+        }
+    });
     let mut file = SourceFile {
         items,
         trailing_comments: Vec::new(),
         span: Span::new(0, src.len()),
     };
-    attach_trivia(src, &mut file, &split.comments);
+    attach_trivia(src, &mut file, &comments);
     errors.sort_by_key(|e: &SyntaxError| (e.span.start, e.span.end));
     errors.dedup_by(|a, b| a.span == b.span && a.message == b.message);
     (file, errors)
@@ -107,17 +112,18 @@ pub fn decode(bytes: &[u8]) -> (String, Option<SyntaxError>) {
     }
 }
 
-struct Split {
-    /// Tokens other than trivia, with [`Tok::RowEnd`] at line ends inside table bodies.
-    significant: Vec<(Tok, SimpleSpan)>,
-    /// Ranges of `significant`, one per statement.
-    chunks: Vec<std::ops::Range<usize>>,
-    comments: Vec<Comment>,
-}
+/// Statements are handed to the parser in batches of about this many
+/// tokens, so that the token buffer stays small however long the file.
+const BATCH_TOKENS: usize = 1 << 14;
 
-/// Lexes and splits in one pass, without keeping trivia tokens.
-fn split_statements(src: &str) -> Split {
-    let mut significant: Vec<(Tok, SimpleSpan)> = Vec::with_capacity(src.len() / 4 + 1);
+/// Lexes and splits in one pass, without keeping trivia tokens. Complete
+/// statements go to `parse_batch` as token ranges, in order, a batch at a
+/// time; the comments are returned.
+fn split_statements(
+    src: &str,
+    mut parse_batch: impl FnMut(&[(Tok, SimpleSpan)], &[std::ops::Range<usize>]),
+) -> Vec<Comment> {
+    let mut significant: Vec<(Tok, SimpleSpan)> = Vec::with_capacity(BATCH_TOKENS + 256);
     let mut chunks = Vec::new();
     let mut comments = Vec::new();
     let mut chunk_start = 0usize;
@@ -188,6 +194,12 @@ fn split_statements(src: &str) -> Split {
             chunk_start = at;
             awaiting_body = false;
             body_depth = 0;
+            if chunk_start >= BATCH_TOKENS {
+                parse_batch(&significant, &chunks);
+                chunks.clear();
+                significant.drain(..chunk_start);
+                chunk_start = 0;
+            }
         }
         match kind {
             Tok::KwTable | Tok::KwExpect => awaiting_body = true,
@@ -208,11 +220,8 @@ fn split_statements(src: &str) -> Split {
     if significant.len() > chunk_start {
         chunks.push(chunk_start..significant.len());
     }
-    Split {
-        significant,
-        chunks,
-        comments,
-    }
+    parse_batch(&significant, &chunks);
+    comments
 }
 
 /// Where an expression first nests deeper than [`MAX_NESTING`].
@@ -602,14 +611,14 @@ fn attach_trivia(src: &str, file: &mut SourceFile, comments: &[Comment]) {
                 attach_inside(src, prev, c);
                 continue;
             }
-            if same_line(src, prev.span.end, c.span.start) && prev.trivia.trailing.is_none() {
-                prev.trivia.trailing = Some(c.clone());
+            if same_line(src, prev.span.end, c.span.start) && prev.trivia.trailing().is_none() {
+                prev.trivia.comments_mut().trailing = Some(c.clone());
                 continue;
             }
         }
         let blank = blank_line_before(src, c.span.start);
         match file.items.get_mut(next) {
-            Some(item) => item.trivia.leading.push((blank, c.clone())),
+            Some(item) => item.trivia.comments_mut().leading.push((blank, c.clone())),
             None => file.trailing_comments.push((blank, c.clone())),
         }
     }
@@ -619,7 +628,7 @@ fn attach_inside(src: &str, item: &mut Item, c: &Comment) {
     let table = match &mut item.kind {
         ItemKind::Table(t) | ItemKind::Expect(t) => t,
         _ => {
-            item.trivia.interior.push(c.clone());
+            item.trivia.comments_mut().interior.push(c.clone());
             return;
         }
     };
@@ -628,18 +637,18 @@ fn attach_inside(src: &str, item: &mut Item, c: &Comment) {
         .find('{')
         .map(|i| item.span.start + i);
     let Some(body_start) = body_start else {
-        item.trivia.interior.push(c.clone());
+        item.trivia.comments_mut().interior.push(c.clone());
         return;
     };
     let next = table.rows.partition_point(|r| r.span.start <= c.span.start);
     if next > 0 {
         let prev = &mut table.rows[next - 1];
         if prev.span.end > c.span.start {
-            item.trivia.interior.push(c.clone());
+            item.trivia.comments_mut().interior.push(c.clone());
             return;
         }
-        if same_line(src, prev.span.end, c.span.start) && prev.trivia.trailing.is_none() {
-            prev.trivia.trailing = Some(c.clone());
+        if same_line(src, prev.span.end, c.span.start) && prev.trivia.trailing().is_none() {
+            prev.trivia.comments_mut().trailing = Some(c.clone());
             return;
         }
     } else if same_line(src, body_start, c.span.start) && table.open_comment.is_none() {
@@ -648,7 +657,7 @@ fn attach_inside(src: &str, item: &mut Item, c: &Comment) {
     }
     let blank = blank_line_before(src, c.span.start);
     match table.rows.get_mut(next) {
-        Some(row) => row.trivia.leading.push((blank, c.clone())),
+        Some(row) => row.trivia.comments_mut().leading.push((blank, c.clone())),
         None => table.closing_comments.push((blank, c.clone())),
     }
 }
