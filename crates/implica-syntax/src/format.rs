@@ -41,7 +41,12 @@ pub fn format_file(src: &str, file: &SourceFile) -> String {
         out.blank_if(*blank);
         out.line(c.text.to_string());
     }
-    out.finish()
+    let text = out.finish();
+    // A byte-order mark is the file's, not layout: keep it.
+    match src.strip_prefix('\u{FEFF}') {
+        Some(_) if !text.is_empty() => format!("\u{FEFF}{text}"),
+        _ => text,
+    }
 }
 
 #[derive(Default)]

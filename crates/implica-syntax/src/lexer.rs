@@ -11,7 +11,9 @@ use logos::Logos;
 /// The kind of a token. Trivia (whitespace, line breaks, comments) are tokens too.
 #[derive(Logos, Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum TokenKind {
-    #[regex(r"[ \t\r\f]+")]
+    /// Spaces, tabs, carriage returns, form feeds, and the byte-order mark
+    /// some editors put at the start of a UTF-8 file.
+    #[regex(r"[ \t\r\f\u{FEFF}]+")]
     Whitespace,
     #[token("\n")]
     Newline,

@@ -179,3 +179,14 @@ fn crlf_line_ends_are_read_and_formatted_to_lf() {
     assert!(!out.contains('\r'));
     assert!(out.contains("output y  # out\n"));
 }
+
+#[test]
+fn a_byte_order_mark_is_accepted_and_kept() {
+    let src = "\u{FEFF}input a\noutput y\ny=a\n";
+    let (_, errors) = parse(src);
+    assert!(errors.is_empty(), "{errors:?}");
+    assert_eq!(
+        format_source(src).unwrap(),
+        "\u{FEFF}input  a\noutput y\ny = a\n"
+    );
+}
