@@ -492,7 +492,7 @@ fn convert_error(
     }
     if found.is_some() && words == ["the end of the statement"] {
         out.message = format!(
-            "unexpected {} after a complete statement",
+            "expected a new statement, found {} after a complete one",
             describe_found(src, found, span)
         );
         out.help = Some(
