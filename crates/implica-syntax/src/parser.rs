@@ -360,7 +360,7 @@ fn describe_found(src: &str, kind: Option<Tok>, span: SimpleSpan) -> String {
         Some(Tok::Ident) => format!("`{}`", &src[span.start..span.end]),
         Some(Tok::Error) => {
             let text = &src[span.start..span.end];
-            let shown: String = text.chars().take(8).collect();
+            let shown: String = text.chars().take(8).flat_map(char::escape_debug).collect();
             if text.chars().count() > 8 {
                 format!("the unexpected characters `{shown}…`")
             } else {
@@ -463,7 +463,7 @@ fn convert_error(
     }
     if found == Some(Tok::Error) {
         let text = &src[span.start..span.end];
-        let shown: String = text.chars().take(8).collect();
+        let shown: String = text.chars().take(8).flat_map(char::escape_debug).collect();
         out.message = format!(
             "unexpected character{} `{shown}`",
             if text.chars().count() > 1 { "s" } else { "" }

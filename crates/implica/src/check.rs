@@ -157,7 +157,8 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
     if diags.is_empty() {
         return;
     }
-    let file = SimpleFile::new(name, text);
+    let shown = displayable(text);
+    let file = SimpleFile::new(name, shown.as_ref());
     let terminal = if to_stderr {
         std::io::stderr().is_terminal()
     } else {
@@ -174,7 +175,8 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
         termcolor::StandardStream::stdout(choice)
     };
     let config = term::Config::default();
-    for d in diags {
+    let index = LineIndex::new(text);
+    for d in diags.iter().take(MAX_SHOWN) {
         let severity = match d.severity {
             Severity::Error => ReportSeverity::Error,
             Severity::Warning => ReportSeverity::Warning,
@@ -182,19 +184,98 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
             Severity::Hint => ReportSeverity::Help,
         };
         let clamp = |s: implica_syntax::Span| s.start.min(text.len())..s.end.min(text.len());
-        let mut labels = vec![Label::primary((), clamp(d.span))];
-        labels.extend(
-            d.related
-                .iter()
-                .map(|r| Label::secondary((), clamp(r.span)).with_message(&r.message)),
-        );
         let mut report = Report::new(severity)
             .with_code(d.rule)
-            .with_message(&d.message)
-            .with_labels(labels);
-        if let Some(help) = &d.help {
-            report = report.with_notes(vec![format!("help: {help}")]);
+            .with_message(&d.message);
+        let mut notes = Vec::new();
+        if line_length(text, d.span.start) <= MAX_SNIPPET_LINE {
+            let mut labels = vec![Label::primary((), clamp(d.span))];
+            labels.extend(
+                d.related
+                    .iter()
+                    .map(|r| Label::secondary((), clamp(r.span)).with_message(&r.message)),
+            );
+            report = report.with_labels(labels);
+        } else {
+            // A snippet of a huge line (a binary or minified file) would bury the message.
+            let at = index.line_col(text, d.span.start);
+            notes.push(format!(
+                "at {name}:{}:{} (the line is too long to show)",
+                at.line + 1,
+                at.col + 1
+            ));
         }
+        if let Some(help) = &d.help {
+            notes.push(format!("help: {help}"));
+        }
+        report = report.with_notes(notes);
         let _ = term::emit_to_write_style(&mut stream.lock(), &config, &file, &report);
+    }
+    if diags.len() > MAX_SHOWN {
+        use std::io::Write;
+        let _ = writeln!(
+            stream.lock(),
+            "... and {} more in {name} (all of them: --format json)\n",
+            diags.len() - MAX_SHOWN
+        );
+    }
+}
+
+/// Diagnostics shown per file in human output.
+const MAX_SHOWN: usize = 50;
+
+/// Lines longer than this (in bytes) are not shown as snippets.
+const MAX_SNIPPET_LINE: usize = 400;
+
+fn line_length(text: &str, offset: usize) -> usize {
+    let offset = offset.min(text.len());
+    let bytes = text.as_bytes();
+    let start = bytes[..offset]
+        .iter()
+        .rposition(|&b| b == b'\n')
+        .map_or(0, |i| i + 1);
+    let end = bytes[offset..]
+        .iter()
+        .position(|&b| b == b'\n')
+        .map_or(text.len(), |i| offset + i);
+    end - start
+}
+
+/// `text` with control and bidirectional-override characters replaced by
+/// visible ones of the same UTF-8 length, so that snippets of a binary or
+/// hostile file cannot drive the terminal, and byte offsets stay valid.
+fn displayable(text: &str) -> std::borrow::Cow<'_, str> {
+    let bad = |c: char| {
+        (c.is_control() && c != '\n' && c != '\t' && c != '\r')
+            || matches!(c, '\u{202A}'..='\u{202E}' | '\u{2066}'..='\u{2069}')
+    };
+    if !text.chars().any(bad) {
+        return text.into();
+    }
+    text.chars()
+        .map(|c| match (bad(c), c.len_utf8()) {
+            (false, _) => c,
+            (true, 1) => '?',
+            (true, 2) => '\u{BF}',
+            (true, _) => '\u{FFFD}',
+        })
+        .collect::<String>()
+        .into()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::displayable;
+
+    #[test]
+    fn control_characters_are_masked_without_moving_offsets() {
+        let text = "a\u{1b}[31mb\u{85}c\u{202E}d\n\te";
+        let shown = displayable(text);
+        assert_eq!(shown.len(), text.len());
+        assert_eq!(shown, "a?[31mb\u{BF}c\u{FFFD}d\n\te");
+        assert!(matches!(
+            displayable("plain"),
+            std::borrow::Cow::Borrowed(_)
+        ));
     }
 }
