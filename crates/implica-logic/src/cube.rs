@@ -1,0 +1,143 @@
+//! Cubes in positional notation and covers (sums of products).
+
+use crate::TruthTable;
+
+/// A product term over up to 64 variables in positional notation: two bits
+/// per variable, bit `i` of `zero` set when variable `i` may be 0 and bit `i`
+/// of `one` set when it may be 1. A variable absent from the term has both;
+/// `x` has only `one`, `!x` only `zero`.
+#[derive(Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub struct Cube {
+    pub zero: u64,
+    pub one: u64,
+}
+
+impl std::fmt::Debug for Cube {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "Cube({:#x}, {:#x})", self.zero, self.one)
+    }
+}
+
+fn mask(vars: usize) -> u64 {
+    if vars >= 64 {
+        u64::MAX
+    } else {
+        (1u64 << vars) - 1
+    }
+}
+
+impl Cube {
+    /// The cube of every input combination over `vars` variables (the constant 1).
+    pub fn universe(vars: usize) -> Cube {
+        Cube {
+            zero: mask(vars),
+            one: mask(vars),
+        }
+    }
+
+    /// The single minterm `m` over `vars` variables (variable 0 = most significant bit).
+    pub fn minterm(vars: usize, m: usize) -> Cube {
+        let mut c = Cube { zero: 0, one: 0 };
+        for i in 0..vars {
+            if (m >> (vars - 1 - i)) & 1 == 1 {
+                c.one |= 1 << i;
+            } else {
+                c.zero |= 1 << i;
+            }
+        }
+        c
+    }
+
+    /// The literal of variable `i`, positive or negated, over `vars` variables.
+    pub fn literal(vars: usize, i: usize, positive: bool) -> Cube {
+        let mut c = Cube::universe(vars);
+        if positive {
+            c.zero &= !(1 << i);
+        } else {
+            c.one &= !(1 << i);
+        }
+        c
+    }
+
+    /// Number of literals among the first `vars` variables.
+    pub fn literals(&self, vars: usize) -> usize {
+        vars - (self.zero & self.one & mask(vars)).count_ones() as usize
+    }
+
+    /// Whether the term is empty (some variable may be neither 0 nor 1).
+    pub fn is_empty(&self, vars: usize) -> bool {
+        (self.zero | self.one) & mask(vars) != mask(vars)
+    }
+
+    /// Whether every combination of `other` is in `self`.
+    pub fn contains(&self, other: &Cube) -> bool {
+        other.zero & !self.zero == 0 && other.one & !self.one == 0
+    }
+
+    /// The intersection (possibly empty).
+    pub fn and(&self, other: &Cube) -> Cube {
+        Cube {
+            zero: self.zero & other.zero,
+            one: self.one & other.one,
+        }
+    }
+
+    /// The value of literal `i`: `Some(true)` for `x`, `Some(false)` for `!x`,
+    /// `None` when the variable is absent.
+    pub fn literal_of(&self, i: usize) -> Option<bool> {
+        match ((self.zero >> i) & 1, (self.one >> i) & 1) {
+            (0, 1) => Some(true),
+            (1, 0) => Some(false),
+            _ => None,
+        }
+    }
+
+    /// Whether the cube contains minterm `m` over `vars` variables.
+    pub fn contains_minterm(&self, vars: usize, m: usize) -> bool {
+        self.contains(&Cube::minterm(vars, m))
+    }
+
+    /// The truth table of the cube over `vars` (≤ [`crate::MAX_VARS`]) variables.
+    pub fn truth_table(&self, vars: usize) -> TruthTable {
+        let mut t = TruthTable::zero(vars);
+        for m in 0..(1usize << vars) {
+            if self.contains_minterm(vars, m) {
+                t.set(m, true);
+            }
+        }
+        t
+    }
+}
+
+/// A sum of products over `vars` variables.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Cover {
+    pub vars: usize,
+    pub cubes: Vec<Cube>,
+}
+
+impl Cover {
+    /// Number of product terms.
+    pub fn len(&self) -> usize {
+        self.cubes.len()
+    }
+
+    /// Whether the cover has no term (the constant 0).
+    pub fn is_empty(&self) -> bool {
+        self.cubes.is_empty()
+    }
+
+    /// Total literal count.
+    pub fn literals(&self) -> usize {
+        self.cubes.iter().map(|c| c.literals(self.vars)).sum()
+    }
+
+    /// The truth table of the sum.
+    pub fn truth_table(&self) -> TruthTable {
+        self.cubes
+            .iter()
+            .fold(TruthTable::zero(self.vars), |acc, c| {
+                acc.or(&c.truth_table(self.vars))
+            })
+    }
+}

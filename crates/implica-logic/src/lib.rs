@@ -1,0 +1,24 @@
+//! The Boolean engine of Implica: bit-parallel truth tables, cubes, and exact
+//! two-level minimization with don't-cares.
+//!
+//! ```
+//! use implica_logic::{TruthTable, minimize_sop, Budget};
+//! // f(a, b, c) = a'b + ab'c + abc'  over 3 inputs, `a` the most significant.
+//! let on = TruthTable::from_minterms(3, &[2, 3, 5, 6]);
+//! let dc = TruthTable::zero(3);
+//! let result = minimize_sop(&on, &dc, &Budget::default()).unwrap();
+//! assert!(result.proven_minimal);
+//! assert_eq!(result.cover.len(), 3);
+//! ```
+//!
+//! Architecture invariant: this crate knows nothing of the Implica syntax; it
+//! works on variables numbered `0..n`, variable 0 being the most significant
+//! bit of a minterm index.
+
+mod cube;
+mod minimize;
+mod truth_table;
+
+pub use cube::{Cover, Cube};
+pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
+pub use truth_table::{MAX_VARS, TruthTable};

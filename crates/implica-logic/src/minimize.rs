@@ -1,0 +1,540 @@
+//! Exact two-level minimization with don't-cares: all prime implicants by
+//! the tabular method of Quine and McCluskey, then a minimum cover by
+//! branch and bound (essential primes, row and column dominance, and a lower
+//! bound from a maximal independent set of rows).
+//!
+//! Cost: fewest product terms, then fewest literals.
+
+use crate::{Cover, Cube, TruthTable};
+use std::collections::HashSet;
+
+/// Limits of one minimization. Past them the result is not proven minimal
+/// (or, for the inputs and primes, not attempted); nothing runs unbounded.
+#[derive(Debug, Clone)]
+pub struct Budget {
+    /// Most inputs handled exactly.
+    pub max_vars: usize,
+    /// Most prime implicants generated.
+    pub max_primes: usize,
+    /// Most branch-and-bound nodes explored; past this the best cover found
+    /// so far is returned with its lower bound.
+    pub max_nodes: u64,
+}
+
+impl Default for Budget {
+    fn default() -> Budget {
+        Budget {
+            max_vars: 16,
+            max_primes: 200_000,
+            max_nodes: 200_000,
+        }
+    }
+}
+
+/// A minimized cover with its certificate.
+#[derive(Debug, Clone)]
+pub struct Minimized {
+    /// The sum of products found.
+    pub cover: Cover,
+    /// Whether no cover with fewer terms, or as few terms and fewer
+    /// literals, exists.
+    pub proven_minimal: bool,
+    /// Fewest terms any cover needs, as proven (equals `cover.len()` when
+    /// `proven_minimal`).
+    pub lower_bound: usize,
+    /// Number of prime implicants of the function.
+    pub primes: usize,
+}
+
+/// Why a function was not minimized exactly, with what is known of it.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct TooLarge {
+    /// What limit was reached.
+    pub reason: String,
+    /// Inputs of the function.
+    pub vars: usize,
+    /// Minterms in the on-set (outside the don't-cares).
+    pub on_set: usize,
+}
+
+/// An implicant in minterm-index space: `value` with the bits of `free`
+/// eliminated (`value & free == 0`).
+#[derive(Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+struct Implicant {
+    value: u32,
+    free: u32,
+}
+
+impl Implicant {
+    fn to_cube(self, vars: usize) -> Cube {
+        let mut c = Cube { zero: 0, one: 0 };
+        for i in 0..vars {
+            let bit = 1u32 << (vars - 1 - i);
+            if self.free & bit != 0 {
+                c.zero |= 1 << i;
+                c.one |= 1 << i;
+            } else if self.value & bit != 0 {
+                c.one |= 1 << i;
+            } else {
+                c.zero |= 1 << i;
+            }
+        }
+        c
+    }
+
+    /// Every minterm of the implicant.
+    fn minterms(self) -> impl Iterator<Item = usize> {
+        let free = self.free;
+        let mut sub = 0u32;
+        let mut done = false;
+        std::iter::from_fn(move || {
+            if done {
+                return None;
+            }
+            let m = (self.value | sub) as usize;
+            sub = sub.wrapping_sub(free) & free;
+            done = sub == 0;
+            Some(m)
+        })
+    }
+}
+
+fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), TooLarge> {
+    assert_eq!(
+        on.vars(),
+        dc.vars(),
+        "on-set and don't-care set over different inputs"
+    );
+    if on.vars() > budget.max_vars {
+        return Err(TooLarge {
+            reason: format!(
+                "{} inputs, more than the {} handled exactly",
+                on.vars(),
+                budget.max_vars
+            ),
+            vars: on.vars(),
+            on_set: on.and_not(dc).count_ones(),
+        });
+    }
+    Ok(())
+}
+
+fn primes_of(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+) -> Result<Vec<Implicant>, TooLarge> {
+    check_size(on, dc, budget)?;
+    let vars = on.vars();
+    let care = on.or(dc);
+    let mut level: HashSet<Implicant> = care
+        .minterms()
+        .into_iter()
+        .map(|m| Implicant {
+            value: m as u32,
+            free: 0,
+        })
+        .collect();
+    let mut primes = Vec::new();
+    while !level.is_empty() {
+        let mut next = HashSet::new();
+        let mut merged: HashSet<Implicant> = HashSet::new();
+        for &imp in &level {
+            for b in 0..vars {
+                let bit = 1u32 << b;
+                if imp.free & bit != 0 || imp.value & bit != 0 {
+                    continue;
+                }
+                let partner = Implicant {
+                    value: imp.value | bit,
+                    free: imp.free,
+                };
+                if level.contains(&partner) {
+                    next.insert(Implicant {
+                        value: imp.value,
+                        free: imp.free | bit,
+                    });
+                    merged.insert(imp);
+                    merged.insert(partner);
+                }
+            }
+        }
+        for &imp in &level {
+            if !merged.contains(&imp) && imp.minterms().any(|m| on.get(m) && !dc.get(m)) {
+                primes.push(imp);
+            }
+        }
+        if primes.len() + next.len() > budget.max_primes {
+            return Err(TooLarge {
+                reason: format!("more than {} prime implicants", budget.max_primes),
+                vars,
+                on_set: on.and_not(dc).count_ones(),
+            });
+        }
+        level = next;
+    }
+    primes.sort();
+    Ok(primes)
+}
+
+/// All prime implicants of the function that is 1 on `on`, free on `dc`,
+/// that cover at least one minterm of `on` outside `dc`.
+pub fn prime_implicants(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+) -> Result<Cover, TooLarge> {
+    let vars = on.vars();
+    let primes = primes_of(on, dc, budget)?;
+    Ok(Cover {
+        vars,
+        cubes: primes.into_iter().map(|p| p.to_cube(vars)).collect(),
+    })
+}
+
+/// The minimal sum of products of the function that is 1 on `on`, 0 outside
+/// `on | dc`, and free on `dc`.
+pub fn minimize_sop(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+) -> Result<Minimized, TooLarge> {
+    let vars = on.vars();
+    let primes = primes_of(on, dc, budget)?;
+    let required = on.and_not(dc).minterms();
+    let mut row_of = std::collections::HashMap::with_capacity(required.len());
+    for (r, &m) in required.iter().enumerate() {
+        row_of.insert(m, r as u32);
+    }
+    let col_rows: Vec<Vec<u32>> = primes
+        .iter()
+        .map(|p| {
+            p.minterms()
+                .filter_map(|m| row_of.get(&m).copied())
+                .collect()
+        })
+        .collect();
+    let col_cost: Vec<u64> = primes
+        .iter()
+        .map(|p| (1u64 << 32) + (vars - p.free.count_ones() as usize) as u64)
+        .collect();
+    let solution = CoverProblem::new(required.len(), col_rows, col_cost).solve(budget.max_nodes);
+    let mut cubes: Vec<Cube> = solution
+        .columns
+        .iter()
+        .map(|&c| primes[c].to_cube(vars))
+        .collect();
+    cubes.sort();
+    Ok(Minimized {
+        proven_minimal: solution.proven,
+        lower_bound: if solution.proven {
+            cubes.len()
+        } else {
+            solution.lower_bound_terms
+        },
+        cover: Cover { vars, cubes },
+        primes: primes.len(),
+    })
+}
+
+/// The minimal product of sums, as the minimal sum of products of the
+/// complement: each cube `c` of the returned cover stands for the sum term
+/// of `c`'s literals negated, and the function is the product of those sums.
+pub fn minimize_pos(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+) -> Result<Minimized, TooLarge> {
+    let off = !&on.or(dc);
+    minimize_sop(&off, dc, budget)
+}
+
+/// Unate covering: choose columns so that every row is covered, at least cost.
+struct CoverProblem {
+    row_cols: Vec<Vec<u32>>,
+    col_rows: Vec<Vec<u32>>,
+    col_cost: Vec<u64>,
+}
+
+struct Solution {
+    columns: Vec<usize>,
+    proven: bool,
+    lower_bound_terms: usize,
+}
+
+#[derive(Clone)]
+struct State {
+    row_alive: Vec<bool>,
+    col_alive: Vec<bool>,
+    chosen: Vec<usize>,
+    cost: u64,
+}
+
+struct Search<'a> {
+    p: &'a CoverProblem,
+    best: Option<(u64, Vec<usize>)>,
+    nodes: u64,
+    max_nodes: u64,
+    exhausted: bool,
+}
+
+impl CoverProblem {
+    fn new(rows: usize, col_rows: Vec<Vec<u32>>, col_cost: Vec<u64>) -> CoverProblem {
+        let mut row_cols = vec![Vec::new(); rows];
+        for (c, rs) in col_rows.iter().enumerate() {
+            for &r in rs {
+                row_cols[r as usize].push(c as u32);
+            }
+        }
+        CoverProblem {
+            row_cols,
+            col_rows,
+            col_cost,
+        }
+    }
+
+    fn solve(&self, max_nodes: u64) -> Solution {
+        let mut state = State {
+            row_alive: vec![true; self.row_cols.len()],
+            col_alive: vec![true; self.col_rows.len()],
+            chosen: Vec::new(),
+            cost: 0,
+        };
+        let mut search = Search {
+            p: self,
+            best: None,
+            nodes: 0,
+            max_nodes,
+            exhausted: false,
+        };
+        // The root's bound, in terms: the essentials plus an independent set of rows.
+        let root_bound = if search.reduce(&mut state) {
+            state.chosen.len() + search.independent_rows(&state).len()
+        } else {
+            0
+        };
+        search.best = Some(search.greedy(state.clone()));
+        search.branch(state);
+        let (_, columns) = search.best.take().unwrap_or_default();
+        Solution {
+            proven: !search.exhausted,
+            lower_bound_terms: root_bound.min(columns.len()),
+            columns,
+        }
+    }
+}
+
+impl Search<'_> {
+    fn select(&self, s: &mut State, c: usize) {
+        s.chosen.push(c);
+        s.cost += self.p.col_cost[c];
+        s.col_alive[c] = false;
+        for &r in &self.p.col_rows[c] {
+            s.row_alive[r as usize] = false;
+        }
+    }
+
+    fn alive_cols_of<'s>(&'s self, s: &'s State, r: usize) -> impl Iterator<Item = usize> + 's {
+        self.p.row_cols[r]
+            .iter()
+            .map(|&c| c as usize)
+            .filter(move |&c| s.col_alive[c])
+    }
+
+    /// Essential columns and dominance until nothing changes. False when a
+    /// row can no longer be covered.
+    fn reduce(&self, s: &mut State) -> bool {
+        loop {
+            let mut changed = false;
+            for r in 0..s.row_alive.len() {
+                if !s.row_alive[r] {
+                    continue;
+                }
+                let mut cols = self.p.row_cols[r]
+                    .iter()
+                    .map(|&c| c as usize)
+                    .filter(|&c| s.col_alive[c]);
+                match (cols.next(), cols.next()) {
+                    (None, _) => return false,
+                    (Some(c), None) => {
+                        self.select(s, c);
+                        changed = true;
+                    }
+                    _ => {}
+                }
+            }
+            // Column dominance: a column whose live rows another column of no
+            // greater cost also covers is never needed.
+            let live: Vec<usize> = (0..s.col_alive.len()).filter(|&c| s.col_alive[c]).collect();
+            let rows_of = |c: usize| -> Vec<u32> {
+                self.p.col_rows[c]
+                    .iter()
+                    .copied()
+                    .filter(|&r| s.row_alive[r as usize])
+                    .collect()
+            };
+            let sets: Vec<Vec<u32>> = live.iter().map(|&c| rows_of(c)).collect();
+            let mut dead = vec![false; live.len()];
+            for (i, &a) in live.iter().enumerate() {
+                if sets[i].is_empty() {
+                    dead[i] = true;
+                    continue;
+                }
+                for (j, &b) in live.iter().enumerate() {
+                    if i == j || dead[j] || sets[j].len() < sets[i].len() {
+                        continue;
+                    }
+                    let cheaper = self.p.col_cost[b] < self.p.col_cost[a]
+                        || (self.p.col_cost[b] == self.p.col_cost[a]
+                            && (sets[j].len() > sets[i].len() || b < a));
+                    if cheaper && subset(&sets[i], &sets[j]) {
+                        dead[i] = true;
+                        break;
+                    }
+                }
+            }
+            for (i, &c) in live.iter().enumerate() {
+                if dead[i] {
+                    s.col_alive[c] = false;
+                    changed = true;
+                }
+            }
+            // Row dominance: a row whose live columns include all of another
+            // row's is covered whenever that row is.
+            let live_rows: Vec<usize> =
+                (0..s.row_alive.len()).filter(|&r| s.row_alive[r]).collect();
+            let cols: Vec<Vec<u32>> = live_rows
+                .iter()
+                .map(|&r| {
+                    self.p.row_cols[r]
+                        .iter()
+                        .copied()
+                        .filter(|&c| s.col_alive[c as usize])
+                        .collect()
+                })
+                .collect();
+            for (i, &r) in live_rows.iter().enumerate() {
+                for (j, &q) in live_rows.iter().enumerate() {
+                    if i == j || !s.row_alive[q] || cols[j].len() > cols[i].len() {
+                        continue;
+                    }
+                    if (cols[j].len() < cols[i].len() || q < r) && subset(&cols[j], &cols[i]) {
+                        s.row_alive[r] = false;
+                        changed = true;
+                        break;
+                    }
+                }
+            }
+            if !changed {
+                return true;
+            }
+        }
+    }
+
+    /// Rows no two of which share a live column: each needs its own term.
+    fn independent_rows(&self, s: &State) -> Vec<usize> {
+        let mut rows: Vec<usize> = (0..s.row_alive.len()).filter(|&r| s.row_alive[r]).collect();
+        rows.sort_by_key(|&r| self.alive_cols_of(s, r).count());
+        let mut used = vec![false; s.col_alive.len()];
+        let mut picked = Vec::new();
+        for r in rows {
+            let cols: Vec<usize> = self.alive_cols_of(s, r).collect();
+            if cols.iter().all(|&c| !used[c]) {
+                for c in cols {
+                    used[c] = true;
+                }
+                picked.push(r);
+            }
+        }
+        picked
+    }
+
+    fn lower_bound(&self, s: &State) -> u64 {
+        self.independent_rows(s)
+            .into_iter()
+            .map(|r| {
+                self.alive_cols_of(s, r)
+                    .map(|c| self.p.col_cost[c])
+                    .min()
+                    .unwrap_or(0)
+            })
+            .sum()
+    }
+
+    /// A cover by repeatedly taking the column that covers the most live rows per cost.
+    fn greedy(&self, mut s: State) -> (u64, Vec<usize>) {
+        while let Some(r) = (0..s.row_alive.len()).find(|&r| s.row_alive[r]) {
+            let best = self
+                .alive_cols_of(&s, r)
+                .max_by(|&a, &b| {
+                    let gain = |c: usize| {
+                        let n = self.p.col_rows[c]
+                            .iter()
+                            .filter(|&&r| s.row_alive[r as usize])
+                            .count();
+                        (n as f64) / (self.p.col_cost[c] as f64)
+                    };
+                    gain(a).total_cmp(&gain(b)).then(b.cmp(&a))
+                })
+                .expect("a live row has a live column");
+            self.select(&mut s, best);
+        }
+        (s.cost, s.chosen)
+    }
+
+    fn branch(&mut self, mut s: State) {
+        self.nodes += 1;
+        if self.nodes > self.max_nodes {
+            self.exhausted = true;
+            return;
+        }
+        if !self.reduce(&mut s) {
+            return;
+        }
+        let best_cost = self.best.as_ref().map_or(u64::MAX, |b| b.0);
+        if s.cost + self.lower_bound(&s) >= best_cost {
+            return;
+        }
+        let Some(r) = (0..s.row_alive.len())
+            .filter(|&r| s.row_alive[r])
+            .min_by_key(|&r| self.alive_cols_of(&s, r).count())
+        else {
+            self.best = Some((s.cost, s.chosen));
+            return;
+        };
+        let mut cols: Vec<usize> = self.alive_cols_of(&s, r).collect();
+        cols.sort_by_key(|&c| {
+            (
+                self.p.col_cost[c],
+                std::cmp::Reverse(self.p.col_rows[c].len()),
+            )
+        });
+        for (k, &c) in cols.iter().enumerate() {
+            let mut next = s.clone();
+            // Columns tried before this one are excluded: their branches are done.
+            for &earlier in &cols[..k] {
+                next.col_alive[earlier] = false;
+            }
+            self.select(&mut next, c);
+            self.branch(next);
+            if self.exhausted {
+                return;
+            }
+        }
+    }
+}
+
+/// Whether sorted `a` is a subset of sorted `b`.
+fn subset(a: &[u32], b: &[u32]) -> bool {
+    let mut j = 0;
+    for &x in a {
+        while j < b.len() && b[j] < x {
+            j += 1;
+        }
+        if j == b.len() || b[j] != x {
+            return false;
+        }
+        j += 1;
+    }
+    true
+}

@@ -1,0 +1,232 @@
+//! Bit-parallel truth tables.
+
+/// The most inputs a [`TruthTable`] holds: 2^20 bits = 16,384 words = 128 KiB.
+pub const MAX_VARS: usize = 20;
+
+/// A Boolean function of `n` inputs as 2^n bits, 64 to a word. Bit `m` is
+/// the value on minterm `m`; variable 0 is the most significant bit of `m`.
+#[derive(Clone, PartialEq, Eq, Hash)]
+pub struct TruthTable {
+    vars: usize,
+    words: Vec<u64>,
+}
+
+impl std::fmt::Debug for TruthTable {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "TruthTable({} vars, on = {:?})",
+            self.vars,
+            self.minterms()
+        )
+    }
+}
+
+impl TruthTable {
+    fn words_for(vars: usize) -> usize {
+        assert!(
+            vars <= MAX_VARS,
+            "a truth table has at most {MAX_VARS} variables"
+        );
+        (1usize << vars).div_ceil(64)
+    }
+
+    /// The mask of valid bits in the last word.
+    fn tail_mask(&self) -> u64 {
+        let bits = 1usize << self.vars;
+        if bits.is_multiple_of(64) {
+            u64::MAX
+        } else {
+            (1u64 << bits) - 1
+        }
+    }
+
+    /// The constant 0 over `vars` inputs. Panics above [`MAX_VARS`].
+    pub fn zero(vars: usize) -> TruthTable {
+        TruthTable {
+            vars,
+            words: vec![0; Self::words_for(vars)],
+        }
+    }
+
+    /// The constant 1 over `vars` inputs.
+    pub fn one(vars: usize) -> TruthTable {
+        !&TruthTable::zero(vars)
+    }
+
+    /// Variable `i` (0 = most significant) over `vars` inputs.
+    pub fn var(vars: usize, i: usize) -> TruthTable {
+        assert!(i < vars, "variable {i} of {vars}");
+        let mut t = TruthTable::zero(vars);
+        let shift = vars - 1 - i;
+        for m in 0..(1usize << vars) {
+            if (m >> shift) & 1 == 1 {
+                t.set(m, true);
+            }
+        }
+        t
+    }
+
+    /// The function that is 1 exactly on `minterms`.
+    pub fn from_minterms(vars: usize, minterms: &[usize]) -> TruthTable {
+        let mut t = TruthTable::zero(vars);
+        for &m in minterms {
+            t.set(m, true);
+        }
+        t
+    }
+
+    /// Number of inputs.
+    pub fn vars(&self) -> usize {
+        self.vars
+    }
+
+    /// The value on minterm `m`.
+    pub fn get(&self, m: usize) -> bool {
+        (self.words[m / 64] >> (m % 64)) & 1 == 1
+    }
+
+    /// Sets the value on minterm `m`.
+    pub fn set(&mut self, m: usize, value: bool) {
+        let bit = 1u64 << (m % 64);
+        if value {
+            self.words[m / 64] |= bit;
+        } else {
+            self.words[m / 64] &= !bit;
+        }
+    }
+
+    /// The minterms where the function is 1, ascending.
+    pub fn minterms(&self) -> Vec<usize> {
+        let mut out = Vec::with_capacity(self.count_ones());
+        for (w, &word) in self.words.iter().enumerate() {
+            let mut bits = word;
+            while bits != 0 {
+                out.push(w * 64 + bits.trailing_zeros() as usize);
+                bits &= bits - 1;
+            }
+        }
+        out
+    }
+
+    /// How many minterms are 1.
+    pub fn count_ones(&self) -> usize {
+        self.words.iter().map(|w| w.count_ones() as usize).sum()
+    }
+
+    /// Whether the function is 0 everywhere.
+    pub fn is_zero(&self) -> bool {
+        self.words.iter().all(|&w| w == 0)
+    }
+
+    /// Whether the function is 1 everywhere.
+    pub fn is_one(&self) -> bool {
+        (!self).is_zero()
+    }
+
+    /// The value for an input vector, `inputs[0]` being variable 0.
+    pub fn eval(&self, inputs: &[bool]) -> bool {
+        assert_eq!(inputs.len(), self.vars);
+        let m = inputs
+            .iter()
+            .fold(0usize, |acc, &b| (acc << 1) | usize::from(b));
+        self.get(m)
+    }
+
+    /// The first minterm where `self` and `other` differ, or `None` when they
+    /// are equivalent. Panics if the variable counts differ.
+    pub fn counterexample(&self, other: &TruthTable) -> Option<usize> {
+        assert_eq!(self.vars, other.vars);
+        self.words
+            .iter()
+            .zip(&other.words)
+            .position(|(a, b)| a != b)
+            .map(|w| w * 64 + (self.words[w] ^ other.words[w]).trailing_zeros() as usize)
+    }
+
+    /// Whether `self` is 1 wherever `other` is 1.
+    pub fn covers(&self, other: &TruthTable) -> bool {
+        self.words
+            .iter()
+            .zip(&other.words)
+            .all(|(a, b)| b & !a == 0)
+    }
+
+    /// The cofactor with variable `i` fixed to `value`, still over `vars` inputs
+    /// (it no longer depends on `i`).
+    pub fn cofactor(&self, i: usize, value: bool) -> TruthTable {
+        let shift = self.vars - 1 - i;
+        let mut t = TruthTable::zero(self.vars);
+        for m in 0..(1usize << self.vars) {
+            let src = if value {
+                m | (1 << shift)
+            } else {
+                m & !(1 << shift)
+            };
+            if self.get(src) {
+                t.set(m, true);
+            }
+        }
+        t
+    }
+
+    /// Whether the function's value depends on variable `i`.
+    pub fn depends_on(&self, i: usize) -> bool {
+        self.cofactor(i, false) != self.cofactor(i, true)
+    }
+
+    /// The variables the function depends on.
+    pub fn support(&self) -> Vec<usize> {
+        (0..self.vars).filter(|&i| self.depends_on(i)).collect()
+    }
+
+    fn zip(&self, other: &TruthTable, f: impl Fn(u64, u64) -> u64) -> TruthTable {
+        assert_eq!(self.vars, other.vars, "truth tables over different inputs");
+        let mut t = TruthTable {
+            vars: self.vars,
+            words: self
+                .words
+                .iter()
+                .zip(&other.words)
+                .map(|(&a, &b)| f(a, b))
+                .collect(),
+        };
+        let last = t.words.len() - 1;
+        t.words[last] &= t.tail_mask();
+        t
+    }
+
+    /// `self & other`.
+    pub fn and(&self, other: &TruthTable) -> TruthTable {
+        self.zip(other, |a, b| a & b)
+    }
+
+    /// `self | other`.
+    pub fn or(&self, other: &TruthTable) -> TruthTable {
+        self.zip(other, |a, b| a | b)
+    }
+
+    /// `self ^ other`.
+    pub fn xor(&self, other: &TruthTable) -> TruthTable {
+        self.zip(other, |a, b| a ^ b)
+    }
+
+    /// `self & !other`.
+    pub fn and_not(&self, other: &TruthTable) -> TruthTable {
+        self.zip(other, |a, b| a & !b)
+    }
+}
+
+impl std::ops::Not for &TruthTable {
+    type Output = TruthTable;
+
+    fn not(self) -> TruthTable {
+        let mut t = TruthTable {
+            vars: self.vars,
+            words: self.words.iter().map(|w| !w).collect(),
+        };
+        let last = t.words.len() - 1;
+        t.words[last] &= self.tail_mask();
+        t
+    }
+}

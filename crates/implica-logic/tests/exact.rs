@@ -1,0 +1,292 @@
+//! Exact minimization checked against outside references and an
+//! independent brute force. Sources are named beside each check.
+
+use implica_logic::{Budget, Cover, TruthTable, minimize_pos, minimize_sop, prime_implicants};
+
+fn table(vars: usize, bits: u64) -> TruthTable {
+    let mut t = TruthTable::zero(vars);
+    for m in 0..(1usize << vars) {
+        t.set(m, (bits >> m) & 1 == 1);
+    }
+    t
+}
+
+/// Brute force, independent of the engine: every cube as (value, free) over
+/// minterm-index bits; primes are implicants no one-variable expansion of
+/// which is an implicant; the minimum is over every subset of primes.
+fn brute_minimum(vars: usize, on: u64, dc: u64) -> (usize, usize, usize) {
+    let care = on | dc;
+    let required = on & !dc;
+    let minterms = |value: u32, free: u32| -> u64 {
+        let mut mask = 0u64;
+        for m in 0..(1u32 << vars) {
+            if m & !free == value {
+                mask |= 1 << m;
+            }
+        }
+        mask
+    };
+    let implicant = |value: u32, free: u32| minterms(value, free) & !care == 0;
+    let mut primes = Vec::new();
+    for free in 0..(1u32 << vars) {
+        for value in 0..(1u32 << vars) {
+            if value & free != 0 || !implicant(value, free) {
+                continue;
+            }
+            let expandable = (0..vars).any(|b| {
+                let bit = 1u32 << b;
+                free & bit == 0 && implicant(value & !bit, free | bit)
+            });
+            let covers = minterms(value, free);
+            if !expandable && covers & required != 0 {
+                primes.push((covers, vars - free.count_ones() as usize));
+            }
+        }
+    }
+    let mut best = (usize::MAX, usize::MAX);
+    for subset in 0u32..(1 << primes.len()) {
+        let (mut covered, mut terms, mut lits) = (0u64, 0, 0);
+        for (i, &(c, l)) in primes.iter().enumerate() {
+            if subset >> i & 1 == 1 {
+                covered |= c;
+                terms += 1;
+                lits += l;
+            }
+        }
+        if covered & required == required && (terms, lits) < best {
+            best = (terms, lits);
+        }
+    }
+    (best.0, best.1, primes.len())
+}
+
+fn check_exact(vars: usize, on: u64, dc: u64) {
+    let (t_on, t_dc) = (table(vars, on), table(vars, dc));
+    let r = minimize_sop(&t_on, &t_dc, &Budget::default()).unwrap();
+    let f = r.cover.truth_table();
+    // Equivalent under the don't-cares.
+    assert!(
+        f.covers(&t_on.and_not(&t_dc)),
+        "{vars} {on:#x} {dc:#x}: misses on-set minterms"
+    );
+    assert!(
+        t_on.or(&t_dc).covers(&f),
+        "{vars} {on:#x} {dc:#x}: covers off-set minterms"
+    );
+    let (terms, lits, primes) = brute_minimum(vars, on, dc);
+    assert_eq!(
+        (r.cover.len(), r.cover.literals()),
+        (terms, lits),
+        "{vars} {on:#x} {dc:#x}"
+    );
+    assert!(r.proven_minimal);
+    assert_eq!(r.lower_bound, terms);
+    assert_eq!(r.primes, primes, "{vars} {on:#x} {dc:#x}: prime count");
+}
+
+#[test]
+fn every_function_of_two_and_three_inputs_with_every_dont_care_set() {
+    for vars in [2usize, 3] {
+        let n = 1u64 << (1 << vars);
+        for on in 0..n {
+            for dc in 0..n {
+                if on & dc == 0 {
+                    check_exact(vars, on, dc);
+                }
+            }
+        }
+    }
+}
+
+#[test]
+fn every_function_of_four_inputs_is_minimal_against_brute_force() {
+    for on in 0..(1u64 << 16) {
+        check_exact(4, on, 0);
+    }
+}
+
+#[test]
+fn random_four_input_functions_with_dont_cares() {
+    let mut x = 0x2545_F491_4F6C_DD1Du64;
+    for _ in 0..3000 {
+        x ^= x << 13;
+        x ^= x >> 7;
+        x ^= x << 17;
+        let (on, dc) = (x & 0xFFFF, (x >> 16) & 0xFFFF);
+        check_exact(4, on & !dc, dc);
+    }
+}
+
+fn term_count_distribution(vars: usize) -> Vec<usize> {
+    let mut counts = vec![0usize; 1 << (vars - 1) | 1];
+    for bits in 0..(1u64 << (1 << vars)) {
+        let r = minimize_sop(
+            &table(vars, bits),
+            &TruthTable::zero(vars),
+            &Budget::default(),
+        )
+        .unwrap();
+        counts[r.cover.len()] += 1;
+    }
+    while counts.last() == Some(&0) {
+        counts.pop();
+    }
+    counts
+}
+
+#[test]
+fn term_counts_of_all_three_input_functions() {
+    // S. Wolfram, A New Kind of Science (2002), notes to chapter 10, "Boolean formula sizes".
+    assert_eq!(term_count_distribution(3), vec![1, 27, 130, 88, 10]);
+}
+
+#[test]
+fn term_counts_of_all_four_input_functions() {
+    // S. Wolfram, A New Kind of Science (2002), notes to chapter 10, "Boolean formula sizes".
+    assert_eq!(
+        term_count_distribution(4),
+        vec![1, 81, 1804, 13472, 28904, 17032, 3704, 512, 26]
+    );
+}
+
+#[test]
+fn largest_number_of_prime_implicants() {
+    // OEIS A003039: 1, 2, 6, 13 for n = 1..4.
+    for (vars, expected) in [(1usize, 1usize), (2, 2), (3, 6), (4, 13)] {
+        let most = (0..(1u64 << (1 << vars)))
+            .map(|bits| {
+                prime_implicants(
+                    &table(vars, bits),
+                    &TruthTable::zero(vars),
+                    &Budget::default(),
+                )
+                .unwrap()
+                .len()
+            })
+            .max()
+            .unwrap();
+        assert_eq!(most, expected, "n = {vars}");
+    }
+}
+
+fn cube_text(cover: &Cover) -> Vec<String> {
+    let names = ["A", "B", "C", "D", "E", "F", "G", "H"];
+    let mut out: Vec<String> = cover
+        .cubes
+        .iter()
+        .map(|c| {
+            (0..cover.vars)
+                .filter_map(|i| {
+                    c.literal_of(i)
+                        .map(|p| format!("{}{}", names[i], if p { "" } else { "'" }))
+                })
+                .collect::<String>()
+        })
+        .collect();
+    out.sort();
+    out
+}
+
+#[test]
+fn quine_mccluskey_worked_example() {
+    // Wikipedia, "Quine–McCluskey algorithm", worked example:
+    // f(A,B,C,D) = Σm(4, 8, 10, 11, 12, 15) + d(9, 14): 4 prime implicants;
+    // minimum 3 terms, 7 literals: BC'D' + AB' + AC or BC'D' + AD' + AC.
+    let on = TruthTable::from_minterms(4, &[4, 8, 10, 11, 12, 15]);
+    let dc = TruthTable::from_minterms(4, &[9, 14]);
+    assert_eq!(
+        prime_implicants(&on, &dc, &Budget::default())
+            .unwrap()
+            .len(),
+        4
+    );
+    let r = minimize_sop(&on, &dc, &Budget::default()).unwrap();
+    assert_eq!((r.cover.len(), r.cover.literals()), (3, 7));
+    let text = cube_text(&r.cover);
+    let first = vec!["AB'".to_string(), "AC".to_string(), "BC'D'".to_string()];
+    let second = vec!["AC".to_string(), "AD'".to_string(), "BC'D'".to_string()];
+    assert!(text == first || text == second, "{text:?}");
+}
+
+#[test]
+fn parity_needs_every_minterm() {
+    // Standard result (e.g. M. M. Mano, Digital Design, on XOR functions and
+    // maps): the minimal sum of products of n-input parity has 2^(n-1) terms
+    // of n literals each.
+    for vars in 2..=8usize {
+        let mut odd = TruthTable::zero(vars);
+        for m in 0..(1usize << vars) {
+            odd.set(m, m.count_ones() % 2 == 1);
+        }
+        let r = minimize_sop(&odd, &TruthTable::zero(vars), &Budget::default()).unwrap();
+        assert_eq!(r.cover.len(), 1 << (vars - 1));
+        assert_eq!(r.cover.literals(), vars << (vars - 1));
+        assert!(r.proven_minimal);
+    }
+}
+
+#[test]
+fn full_adder() {
+    // Common practice (any digital-design text): sum = A ⊕ B ⊕ Cin needs 4
+    // terms, 12 literals; carry = AB + ACin + BCin, 3 essential primes.
+    let sum = TruthTable::from_minterms(3, &[1, 2, 4, 7]);
+    let carry = TruthTable::from_minterms(3, &[3, 5, 6, 7]);
+    let none = TruthTable::zero(3);
+    let s = minimize_sop(&sum, &none, &Budget::default()).unwrap();
+    assert_eq!((s.cover.len(), s.cover.literals()), (4, 12));
+    let c = minimize_sop(&carry, &none, &Budget::default()).unwrap();
+    assert_eq!(cube_text(&c.cover), vec!["AB", "AC", "BC"]);
+}
+
+#[test]
+fn product_of_sums_by_the_complement() {
+    // f = AB + C; its minimal product of sums is (A + C)(B + C), given as the
+    // complement's minimal sum A'C' + B'C' (De Morgan; common practice).
+    let f = TruthTable::var(3, 0)
+        .and(&TruthTable::var(3, 1))
+        .or(&TruthTable::var(3, 2));
+    let r = minimize_pos(&f, &TruthTable::zero(3), &Budget::default()).unwrap();
+    assert_eq!(cube_text(&r.cover), vec!["A'C'", "B'C'"]);
+    assert_eq!(r.cover.truth_table(), !&f);
+}
+
+#[test]
+fn a_cyclic_core_without_search_budget_is_not_claimed_minimal() {
+    // f(A,B,C) = Σm(0, 1, 2, 5, 6, 7): every minterm is covered by two primes
+    // and none is essential (a cyclic prime table; common textbook example).
+    let on = TruthTable::from_minterms(3, &[0, 1, 2, 5, 6, 7]);
+    let none = TruthTable::zero(3);
+    let exact = minimize_sop(&on, &none, &Budget::default()).unwrap();
+    assert_eq!((exact.cover.len(), exact.primes), (3, 6));
+    assert!(exact.proven_minimal);
+    let limited = minimize_sop(
+        &on,
+        &none,
+        &Budget {
+            max_nodes: 0,
+            ..Budget::default()
+        },
+    )
+    .unwrap();
+    assert!(!limited.proven_minimal);
+    assert!(limited.lower_bound <= limited.cover.len());
+    assert_eq!(limited.cover.truth_table(), on);
+}
+
+#[test]
+fn too_many_inputs_is_a_clear_outcome() {
+    let on = TruthTable::var(17, 3);
+    let err = minimize_sop(&on, &TruthTable::zero(17), &Budget::default()).unwrap_err();
+    assert_eq!(err.vars, 17);
+    assert_eq!(err.on_set, 1 << 16);
+    assert!(err.reason.contains("17 inputs"), "{}", err.reason);
+}
+
+#[test]
+fn constants() {
+    let none = TruthTable::zero(3);
+    let zero = minimize_sop(&none, &none, &Budget::default()).unwrap();
+    assert!(zero.cover.is_empty() && zero.proven_minimal);
+    let one = minimize_sop(&TruthTable::one(3), &none, &Budget::default()).unwrap();
+    assert_eq!((one.cover.len(), one.cover.literals()), (1, 0));
+}
