@@ -15,10 +15,14 @@
 //! works on variables numbered `0..n`, variable 0 being the most significant
 //! bit of a minterm index.
 
+mod analysis;
 mod cube;
 mod minimize;
 mod truth_table;
 
+pub use analysis::{
+    hazard_free_cover, redundant_literals, redundant_terms, static0_hazards, static1_hazards,
+};
 pub use cube::{Cover, Cube};
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
 pub use truth_table::{MAX_VARS, TruthTable};

@@ -1,0 +1,124 @@
+//! Analyses of a given sum of products: redundant terms, redundant literals,
+//! static hazards, and the hazard-free cover.
+
+use crate::{Budget, Cover, Cube, TooLarge, TruthTable, prime_implicants};
+
+/// The minterms the function must be 1 on: the on-set outside the don't-cares.
+fn required(on: &TruthTable, dc: &TruthTable) -> TruthTable {
+    on.and_not(dc)
+}
+
+/// Terms of `cover` that can be removed without changing the function under
+/// the don't-cares `dc`: duplicates, absorbed terms, and terms the others
+/// cover together (such as consensus terms). Each index is redundant given
+/// all the other terms; removing them one at a time, rechecking after each,
+/// keeps the function.
+pub fn redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<usize> {
+    let on = cover.truth_table();
+    let need = required(&on, dc);
+    let tables: Vec<TruthTable> = cover
+        .cubes
+        .iter()
+        .map(|c| c.truth_table(cover.vars))
+        .collect();
+    (0..cover.len())
+        .filter(|&i| {
+            let others = tables
+                .iter()
+                .enumerate()
+                .filter(|&(j, _)| j != i)
+                .fold(TruthTable::zero(cover.vars), |acc, (_, t)| acc.or(t));
+            others.covers(&need)
+        })
+        .collect()
+}
+
+/// Literals that can be dropped from their term without changing the
+/// function under `dc`: `(term index, variable)`. The function is the one
+/// `cover` computes; dropping a literal only grows the term, so it is
+/// redundant when the grown term stays inside the function or the
+/// don't-cares.
+pub fn redundant_literals(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
+    let allowed = cover.truth_table().or(dc);
+    let mut out = Vec::new();
+    for (t, cube) in cover.cubes.iter().enumerate() {
+        for v in 0..cover.vars {
+            if cube.literal_of(v).is_none() {
+                continue;
+            }
+            let grown = Cube {
+                zero: cube.zero | 1 << v,
+                one: cube.one | 1 << v,
+            };
+            if allowed.covers(&grown.truth_table(cover.vars)) {
+                out.push((t, v));
+            }
+        }
+    }
+    out
+}
+
+/// Static-1 hazards of a sum of products: pairs of minterms `(a, b)`,
+/// `a < b`, differing in one input, where the function must be 1 on both
+/// (outside `dc`) but no single term covers both, so a change of that input
+/// can glitch the output to 0.
+pub fn static1_hazards(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
+    let vars = cover.vars;
+    let need = required(&cover.truth_table(), dc);
+    let mut out = Vec::new();
+    for a in need.minterms() {
+        for bit in 0..vars {
+            let b = a | (1 << bit);
+            if b == a || !need.get(b) {
+                continue;
+            }
+            let joint = Cube::minterm(vars, a);
+            let joint = Cube {
+                zero: joint.zero | 1 << (vars - 1 - bit),
+                one: joint.one | 1 << (vars - 1 - bit),
+            };
+            if !cover.cubes.iter().any(|c| c.contains(&joint)) {
+                out.push((a, b));
+            }
+        }
+    }
+    out.sort();
+    out
+}
+
+/// Static-0 hazards of a product of sums, given as the sum of products of
+/// its complement (as [`crate::minimize_pos`] returns it): pairs of adjacent
+/// minterms where the function must be 0 on both but no single sum term is 0
+/// on both.
+pub fn static0_hazards(complement: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
+    static1_hazards(complement, dc)
+}
+
+/// `cover` with prime implicants (of the function `on`, free on `dc`) added
+/// until no static-1 hazard is left: for each hazardous pair, a prime with
+/// fewest literals that contains both minterms. The function is unchanged.
+pub fn hazard_free_cover(
+    cover: &Cover,
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+) -> Result<Cover, TooLarge> {
+    let vars = cover.vars;
+    let primes = prime_implicants(on, dc, budget)?;
+    let mut out = cover.clone();
+    loop {
+        let hazards = static1_hazards(&out, dc);
+        let Some(&(a, b)) = hazards.first() else {
+            return Ok(out);
+        };
+        let (ca, cb) = (Cube::minterm(vars, a), Cube::minterm(vars, b));
+        let fix = primes
+            .cubes
+            .iter()
+            .filter(|p| p.contains(&ca) && p.contains(&cb))
+            .min_by_key(|p| p.literals(vars))
+            .copied()
+            .expect("two adjacent minterms of the function lie in one prime");
+        out.cubes.push(fix);
+    }
+}

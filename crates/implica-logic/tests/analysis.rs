@@ -1,0 +1,109 @@
+//! Redundancy and hazard analyses, checked against standard identities and
+//! a published hazard example.
+
+use implica_logic::{
+    Budget, Cover, Cube, TruthTable, hazard_free_cover, minimize_sop, redundant_literals,
+    redundant_terms, static0_hazards, static1_hazards,
+};
+
+/// A cover from terms written as strings over A, B, C, D: `AB'` is A & !B.
+fn cover(vars: usize, terms: &[&str]) -> Cover {
+    let cubes = terms
+        .iter()
+        .map(|t| {
+            let mut c = Cube::universe(vars);
+            let chars: Vec<char> = t.chars().collect();
+            let mut i = 0;
+            while i < chars.len() {
+                let v = (chars[i] as u8 - b'A') as usize;
+                let negated = chars.get(i + 1) == Some(&'\'');
+                c = c.and(&Cube::literal(vars, v, !negated));
+                i += if negated { 2 } else { 1 };
+            }
+            c
+        })
+        .collect();
+    Cover { vars, cubes }
+}
+
+#[test]
+fn consensus_term_is_redundant() {
+    // Consensus theorem xy + x'z + yz = xy + x'z: a standard Boolean-algebra
+    // identity (common practice; stated in digital-design texts, e.g.
+    // M. M. Mano, Digital Design, from memory).
+    let c = cover(3, &["AB", "A'C", "BC"]);
+    assert_eq!(redundant_terms(&c, &TruthTable::zero(3)), vec![2]);
+    let without = Cover {
+        vars: 3,
+        cubes: c.cubes[..2].to_vec(),
+    };
+    assert_eq!(without.truth_table(), c.truth_table());
+}
+
+#[test]
+fn absorbed_and_duplicate_terms_are_redundant() {
+    // Absorption x + xy = x (standard identity, common practice).
+    let c = cover(2, &["A", "AB"]);
+    assert_eq!(redundant_terms(&c, &TruthTable::zero(2)), vec![1]);
+    // A duplicate: each copy is redundant given the other.
+    let d = cover(2, &["AB", "AB", "A'B'"]);
+    assert_eq!(redundant_terms(&d, &TruthTable::zero(2)), vec![0, 1]);
+    // An irredundant cover has none.
+    assert!(redundant_terms(&cover(2, &["AB", "A'B'"]), &TruthTable::zero(2)).is_empty());
+}
+
+#[test]
+fn a_term_covered_only_thanks_to_dont_cares_is_redundant() {
+    // AB + A'B' + B'C with AB'C a don't-care (minterm 5): B'C covers 001 and
+    // 101; 001 is in A'B', 101 is free.
+    let c = cover(3, &["AB", "A'B'", "B'C"]);
+    assert!(redundant_terms(&c, &TruthTable::zero(3)).is_empty());
+    assert_eq!(
+        redundant_terms(&c, &TruthTable::from_minterms(3, &[5])),
+        vec![2]
+    );
+}
+
+#[test]
+fn redundant_literal() {
+    // AB + AB'C = AB + AC (common practice): the B' of the second term can go.
+    let c = cover(3, &["AB", "AB'C"]);
+    assert_eq!(redundant_literals(&c, &TruthTable::zero(3)), vec![(1, 1)]);
+}
+
+#[test]
+fn static_one_hazards_and_the_hazard_free_cover() {
+    // R. H. Katz, Contemporary Logic Design, chapter on hazards:
+    // f(A,B,C,D) = Σm(1, 3, 5, 7, 8, 9, 12, 13, 14, 15); the minimal sum
+    // A'D + AC' + AB has static-1 hazards between (1,9), (5,13), (7,15); the
+    // hazard-free sum needs all five primes A'D + AC' + AB + BD + C'D.
+    let on = TruthTable::from_minterms(4, &[1, 3, 5, 7, 8, 9, 12, 13, 14, 15]);
+    let none = TruthTable::zero(4);
+    let minimal = minimize_sop(&on, &none, &Budget::default()).unwrap();
+    assert_eq!(minimal.cover.len(), 3);
+    assert_eq!(
+        static1_hazards(&minimal.cover, &none),
+        vec![(1, 9), (5, 13), (7, 15)]
+    );
+    let free = hazard_free_cover(&minimal.cover, &on, &none, &Budget::default()).unwrap();
+    assert!(static1_hazards(&free, &none).is_empty());
+    assert_eq!(free.truth_table(), on);
+    let mut got: Vec<Cube> = free.cubes.clone();
+    got.sort();
+    let mut all = cover(4, &["A'D", "AC'", "AB", "BD", "C'D"]).cubes;
+    all.sort();
+    assert_eq!(got, all);
+}
+
+#[test]
+fn static_zero_hazard_of_a_product_of_sums() {
+    // f = (A + B)(A' + C): the sum terms are 0 on A'B' and on AC'; the
+    // adjacent zeros 000 and 100 lie in no single sum term (the dual of the
+    // static-1 case; common practice). The complement's sum of products is
+    // A'B' + AC'.
+    let complement = cover(3, &["A'B'", "AC'"]);
+    assert_eq!(
+        static0_hazards(&complement, &TruthTable::zero(3)),
+        vec![(0, 4)]
+    );
+}
