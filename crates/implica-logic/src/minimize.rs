@@ -363,49 +363,59 @@ impl Search<'_> {
                     _ => {}
                 }
             }
+            // Live rows of each column and live columns of each row, sorted.
+            let col_live: Vec<Vec<u32>> = (0..s.col_alive.len())
+                .map(|c| {
+                    if !s.col_alive[c] {
+                        return Vec::new();
+                    }
+                    self.p.col_rows[c]
+                        .iter()
+                        .copied()
+                        .filter(|&r| s.row_alive[r as usize])
+                        .collect()
+                })
+                .collect();
             // Column dominance: a column whose live rows another column of no
-            // greater cost also covers is never needed.
-            let live: Vec<usize> = (0..s.col_alive.len()).filter(|&c| s.col_alive[c]).collect();
-            let rows_of = |c: usize| -> Vec<u32> {
-                self.p.col_rows[c]
-                    .iter()
-                    .copied()
-                    .filter(|&r| s.row_alive[r as usize])
-                    .collect()
-            };
-            let sets: Vec<Vec<u32>> = live.iter().map(|&c| rows_of(c)).collect();
-            let mut dead = vec![false; live.len()];
-            for (i, &a) in live.iter().enumerate() {
-                if sets[i].is_empty() {
-                    dead[i] = true;
+            // greater cost also covers is never needed. Such a column covers
+            // the first of those rows, so only its columns are candidates.
+            for a in 0..s.col_alive.len() {
+                if !s.col_alive[a] {
                     continue;
                 }
-                for (j, &b) in live.iter().enumerate() {
-                    if i == j || dead[j] || sets[j].len() < sets[i].len() {
-                        continue;
-                    }
-                    let cheaper = self.p.col_cost[b] < self.p.col_cost[a]
-                        || (self.p.col_cost[b] == self.p.col_cost[a]
-                            && (sets[j].len() > sets[i].len() || b < a));
-                    if cheaper && subset(&sets[i], &sets[j]) {
-                        dead[i] = true;
-                        break;
-                    }
-                }
-            }
-            for (i, &c) in live.iter().enumerate() {
-                if dead[i] {
-                    s.col_alive[c] = false;
+                let rows_a = &col_live[a];
+                let Some(&first) = rows_a.first() else {
+                    s.col_alive[a] = false;
+                    changed = true;
+                    continue;
+                };
+                let dominated = self.p.row_cols[first as usize]
+                    .iter()
+                    .map(|&b| b as usize)
+                    .any(|b| {
+                        if b == a || !s.col_alive[b] {
+                            return false;
+                        }
+                        let rows_b = &col_live[b];
+                        let (ca, cb) = (self.p.col_cost[a], self.p.col_cost[b]);
+                        let better =
+                            cb < ca || (cb == ca && (rows_b.len() > rows_a.len() || b < a));
+                        better && rows_b.len() >= rows_a.len() && subset(rows_a, rows_b)
+                    });
+                if dominated {
+                    s.col_alive[a] = false;
                     changed = true;
                 }
             }
             // Row dominance: a row whose live columns include all of another
-            // row's is covered whenever that row is.
-            let live_rows: Vec<usize> =
-                (0..s.row_alive.len()).filter(|&r| s.row_alive[r]).collect();
-            let cols: Vec<Vec<u32>> = live_rows
-                .iter()
-                .map(|&r| {
+            // row's is covered whenever that row is. Such a row is covered by
+            // the other row's first column, so only that column's rows are
+            // candidates.
+            let row_live: Vec<Vec<u32>> = (0..s.row_alive.len())
+                .map(|r| {
+                    if !s.row_alive[r] {
+                        return Vec::new();
+                    }
                     self.p.row_cols[r]
                         .iter()
                         .copied()
@@ -413,15 +423,26 @@ impl Search<'_> {
                         .collect()
                 })
                 .collect();
-            for (i, &r) in live_rows.iter().enumerate() {
-                for (j, &q) in live_rows.iter().enumerate() {
-                    if i == j || !s.row_alive[q] || cols[j].len() > cols[i].len() {
+            for q in 0..s.row_alive.len() {
+                if !s.row_alive[q] {
+                    continue;
+                }
+                let cols_q = &row_live[q];
+                let Some(&first) = cols_q.first() else {
+                    continue;
+                };
+                for &r in &self.p.col_rows[first as usize] {
+                    let r = r as usize;
+                    if r == q || !s.row_alive[r] {
                         continue;
                     }
-                    if (cols[j].len() < cols[i].len() || q < r) && subset(&cols[j], &cols[i]) {
+                    let cols_r = &row_live[r];
+                    if cols_r.len() >= cols_q.len()
+                        && (cols_r.len() > cols_q.len() || q < r)
+                        && subset(cols_q, cols_r)
+                    {
                         s.row_alive[r] = false;
                         changed = true;
-                        break;
                     }
                 }
             }
@@ -503,12 +524,14 @@ impl Search<'_> {
             return;
         };
         let mut cols: Vec<usize> = self.alive_cols_of(&s, r).collect();
-        cols.sort_by_key(|&c| {
-            (
-                self.p.col_cost[c],
-                std::cmp::Reverse(self.p.col_rows[c].len()),
-            )
-        });
+        // Columns covering the most live rows first: good covers early make the bound bite.
+        let live = |c: usize| {
+            self.p.col_rows[c]
+                .iter()
+                .filter(|&&r| s.row_alive[r as usize])
+                .count()
+        };
+        cols.sort_by_key(|&c| (std::cmp::Reverse(live(c)), self.p.col_cost[c]));
         for (k, &c) in cols.iter().enumerate() {
             let mut next = s.clone();
             // Columns tried before this one are excluded: their branches are done.

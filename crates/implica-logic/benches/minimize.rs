@@ -1,0 +1,93 @@
+//! Exact minimization of random and structured functions. Run with
+//! `cargo bench -p implica-logic --bench minimize`; figures go in
+//! docs/benchmarks.md.
+
+use divan::Bencher;
+use implica_logic::{Budget, TruthTable, minimize_sop};
+
+#[global_allocator]
+static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
+fn main() {
+    // How often the default budget proves the result minimal.
+    for vars in [8, 10] {
+        let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
+        let proven = functions
+            .iter()
+            .filter(|(on, dc)| {
+                minimize_sop(on, dc, &Budget::default()).is_ok_and(|r| r.proven_minimal)
+            })
+            .count();
+        println!(
+            "{vars} inputs: {proven} of {} random functions proven minimal",
+            functions.len()
+        );
+    }
+    divan::main();
+}
+
+struct Rng(u64);
+
+impl Rng {
+    fn next(&mut self) -> u64 {
+        self.0 ^= self.0 << 13;
+        self.0 ^= self.0 >> 7;
+        self.0 ^= self.0 << 17;
+        self.0
+    }
+}
+
+/// Random functions: each minterm on with probability 3/8, a don't-care with
+/// probability 1/4, off otherwise.
+fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable, TruthTable)> {
+    let mut rng = Rng(seed);
+    (0..count)
+        .map(|_| {
+            let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+            for m in 0..(1usize << vars) {
+                match rng.next() % 8 {
+                    0..=2 => on.set(m, true),
+                    3 | 4 => dc.set(m, true),
+                    _ => {}
+                }
+            }
+            (on, dc)
+        })
+        .collect()
+}
+
+// 12 inputs comes back when the cover search is faster (docs/benchmarks.md).
+#[divan::bench(args = [8, 10], sample_count = 10)]
+fn random_with_dont_cares(bencher: Bencher, vars: usize) {
+    let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
+    let mut i = 0;
+    bencher.bench_local(|| {
+        let (on, dc) = &functions[i % functions.len()];
+        i += 1;
+        minimize_sop(on, dc, &Budget::default())
+    });
+}
+
+/// Structured 16-input functions: an 8-bit comparator `a > b`, the carry out
+/// of an 8-bit adder, and a 4-to-16 address decoder output gated by 12 more
+/// address lines.
+fn structured(name: &str) -> TruthTable {
+    let mut t = TruthTable::zero(16);
+    for m in 0..(1usize << 16) {
+        let (a, b) = (m >> 8, m & 0xFF);
+        let value = match name {
+            "comparator" => a > b,
+            "carry" => a + b > 0xFF,
+            _ => (m >> 12) == 0xA && (m & 0xFFF) >= 0x800,
+        };
+        t.set(m, value);
+    }
+    t
+}
+
+#[divan::bench(args = ["comparator", "carry", "decoder"], sample_count = 5)]
+fn structured_16_inputs(bencher: Bencher, name: &str) {
+    let on = structured(name);
+    let dc = TruthTable::zero(16);
+    bencher.bench_local(|| minimize_sop(&on, &dc, &Budget::default()));
+}
