@@ -9,8 +9,10 @@ use implica_logic::{Budget, TruthTable, minimize_sop};
 static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
 
 fn main() {
-    // How often the default budget proves the result minimal.
-    for vars in [8, 10] {
+    // How often the default budget proves the result minimal (slow: set
+    // IMPLICA_BENCH_SUMMARY=1 to print it).
+    let summary = std::env::var_os("IMPLICA_BENCH_SUMMARY").is_some();
+    for vars in [8usize, 10].into_iter().filter(|_| summary) {
         let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
         let proven = functions
             .iter()
@@ -22,6 +24,21 @@ fn main() {
             "{vars} inputs: {proven} of {} random functions proven minimal",
             functions.len()
         );
+    }
+    for name in ["comparator", "carry", "decoder"]
+        .into_iter()
+        .filter(|_| summary)
+    {
+        let r = minimize_sop(&structured(name), &TruthTable::zero(16), &Budget::default());
+        match r {
+            Ok(r) => println!(
+                "{name}: {} terms, {} literals, proven minimal: {}",
+                r.cover.len(),
+                r.cover.literals(),
+                r.proven_minimal
+            ),
+            Err(e) => println!("{name}: too large: {}", e.reason),
+        }
     }
     divan::main();
 }

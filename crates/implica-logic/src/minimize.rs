@@ -14,7 +14,7 @@ use std::collections::HashSet;
 pub struct Budget {
     /// Most inputs handled exactly.
     pub max_vars: usize,
-    /// Most prime implicants generated.
+    /// Most implicants held while generating the prime implicants.
     pub max_primes: usize,
     /// Most branch-and-bound nodes explored; past this the best cover found
     /// so far is returned with its lower bound.
@@ -166,7 +166,7 @@ fn primes_of(
         }
         if primes.len() + next.len() > budget.max_primes {
             return Err(TooLarge {
-                reason: format!("more than {} prime implicants", budget.max_primes),
+                reason: format!("more than {} implicants while generating the prime implicants", budget.max_primes),
                 vars,
                 on_set: on.and_not(dc).count_ones(),
             });
