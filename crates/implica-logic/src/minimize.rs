@@ -166,7 +166,10 @@ fn primes_of(
         }
         if primes.len() + next.len() > budget.max_primes {
             return Err(TooLarge {
-                reason: format!("more than {} implicants while generating the prime implicants", budget.max_primes),
+                reason: format!(
+                    "more than {} implicants while generating the prime implicants",
+                    budget.max_primes
+                ),
                 vars,
                 on_set: on.and_not(dc).count_ones(),
             });
@@ -364,18 +367,7 @@ impl Search<'_> {
                 }
             }
             // Live rows of each column and live columns of each row, sorted.
-            let col_live: Vec<Vec<u32>> = (0..s.col_alive.len())
-                .map(|c| {
-                    if !s.col_alive[c] {
-                        return Vec::new();
-                    }
-                    self.p.col_rows[c]
-                        .iter()
-                        .copied()
-                        .filter(|&r| s.row_alive[r as usize])
-                        .collect()
-                })
-                .collect();
+            let col_live = live_lists(&self.p.col_rows, &s.col_alive, &s.row_alive);
             // Column dominance: a column whose live rows another column of no
             // greater cost also covers is never needed. Such a column covers
             // the first of those rows, so only its columns are candidates.
@@ -411,18 +403,7 @@ impl Search<'_> {
             // row's is covered whenever that row is. Such a row is covered by
             // the other row's first column, so only that column's rows are
             // candidates.
-            let row_live: Vec<Vec<u32>> = (0..s.row_alive.len())
-                .map(|r| {
-                    if !s.row_alive[r] {
-                        return Vec::new();
-                    }
-                    self.p.row_cols[r]
-                        .iter()
-                        .copied()
-                        .filter(|&c| s.col_alive[c as usize])
-                        .collect()
-                })
-                .collect();
+            let row_live = live_lists(&self.p.row_cols, &s.row_alive, &s.col_alive);
             for q in 0..s.row_alive.len() {
                 if !s.row_alive[q] {
                     continue;
@@ -545,6 +526,23 @@ impl Search<'_> {
             }
         }
     }
+}
+
+/// For each live owner (row or column), its live entries; empty for the dead.
+fn live_lists(lists: &[Vec<u32>], owner_alive: &[bool], entry_alive: &[bool]) -> Vec<Vec<u32>> {
+    lists
+        .iter()
+        .zip(owner_alive)
+        .map(|(list, &alive)| {
+            if !alive {
+                return Vec::new();
+            }
+            list.iter()
+                .copied()
+                .filter(|&e| entry_alive[e as usize])
+                .collect()
+        })
+        .collect()
 }
 
 /// Whether sorted `a` is a subset of sorted `b`.
