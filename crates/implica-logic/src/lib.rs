@@ -17,6 +17,7 @@
 
 mod analysis;
 mod cube;
+mod expr;
 mod minimize;
 mod truth_table;
 
@@ -24,5 +25,6 @@ pub use analysis::{
     hazard_free_cover, redundant_literals, redundant_terms, static0_hazards, static1_hazards,
 };
 pub use cube::{Cover, Cube};
+pub use expr::BoolExpr;
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
 pub use truth_table::{MAX_VARS, TruthTable};

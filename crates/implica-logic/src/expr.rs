@@ -1,0 +1,190 @@
+//! A compact Boolean expression tree: what the analysis builds functions
+//! from and what minimized covers are printed as.
+
+use crate::{Cover, TruthTable};
+
+/// A Boolean expression over variables `0..n`.
+#[derive(Debug, Clone, PartialEq, Eq, Hash)]
+pub enum BoolExpr {
+    Const(bool),
+    Var(usize),
+    Not(Box<BoolExpr>),
+    /// The conjunction of the operands (1 when there are none).
+    And(Vec<BoolExpr>),
+    /// The disjunction of the operands (0 when there are none).
+    Or(Vec<BoolExpr>),
+    /// The parity of the operands (0 when there are none).
+    Xor(Vec<BoolExpr>),
+}
+
+impl BoolExpr {
+    /// The negation.
+    pub fn not(e: BoolExpr) -> BoolExpr {
+        BoolExpr::Not(Box::new(e))
+    }
+
+    /// The largest variable index used, plus one (0 for a constant).
+    pub fn vars_needed(&self) -> usize {
+        match self {
+            BoolExpr::Const(_) => 0,
+            BoolExpr::Var(i) => i + 1,
+            BoolExpr::Not(e) => e.vars_needed(),
+            BoolExpr::And(es) | BoolExpr::Or(es) | BoolExpr::Xor(es) => {
+                es.iter().map(BoolExpr::vars_needed).max().unwrap_or(0)
+            }
+        }
+    }
+
+    /// The value for an input vector (`inputs[i]` is variable `i`).
+    pub fn eval(&self, inputs: &[bool]) -> bool {
+        match self {
+            BoolExpr::Const(b) => *b,
+            BoolExpr::Var(i) => inputs[*i],
+            BoolExpr::Not(e) => !e.eval(inputs),
+            BoolExpr::And(es) => es.iter().all(|e| e.eval(inputs)),
+            BoolExpr::Or(es) => es.iter().any(|e| e.eval(inputs)),
+            BoolExpr::Xor(es) => es.iter().fold(false, |acc, e| acc ^ e.eval(inputs)),
+        }
+    }
+
+    /// The truth table over `vars` inputs (at least [`BoolExpr::vars_needed`]).
+    pub fn truth_table(&self, vars: usize) -> TruthTable {
+        assert!(
+            vars >= self.vars_needed(),
+            "the expression uses more than {vars} variables"
+        );
+        match self {
+            BoolExpr::Const(false) => TruthTable::zero(vars),
+            BoolExpr::Const(true) => TruthTable::one(vars),
+            BoolExpr::Var(i) => TruthTable::var(vars, *i),
+            BoolExpr::Not(e) => !&e.truth_table(vars),
+            BoolExpr::And(es) => es.iter().fold(TruthTable::one(vars), |acc, e| {
+                acc.and(&e.truth_table(vars))
+            }),
+            BoolExpr::Or(es) => es.iter().fold(TruthTable::zero(vars), |acc, e| {
+                acc.or(&e.truth_table(vars))
+            }),
+            BoolExpr::Xor(es) => es.iter().fold(TruthTable::zero(vars), |acc, e| {
+                acc.xor(&e.truth_table(vars))
+            }),
+        }
+    }
+
+    /// The sum of products a cover stands for.
+    pub fn from_cover(cover: &Cover) -> BoolExpr {
+        let terms: Vec<BoolExpr> = cover
+            .cubes
+            .iter()
+            .map(|c| {
+                let lits: Vec<BoolExpr> = (0..cover.vars)
+                    .filter_map(|i| {
+                        c.literal_of(i).map(|p| {
+                            if p {
+                                BoolExpr::Var(i)
+                            } else {
+                                BoolExpr::not(BoolExpr::Var(i))
+                            }
+                        })
+                    })
+                    .collect();
+                if lits.len() == 1 {
+                    lits.into_iter().next().unwrap_or(BoolExpr::Const(true))
+                } else {
+                    BoolExpr::And(lits)
+                }
+            })
+            .collect();
+        match terms.len() {
+            0 => BoolExpr::Const(false),
+            1 => terms.into_iter().next().unwrap_or(BoolExpr::Const(false)),
+            _ => BoolExpr::Or(terms),
+        }
+    }
+
+    /// The product of sums a cover of the complement stands for (as
+    /// [`crate::minimize_pos`] returns it): each cube becomes the sum of its
+    /// literals negated.
+    pub fn from_complement_cover(complement: &Cover) -> BoolExpr {
+        let sums: Vec<BoolExpr> = complement
+            .cubes
+            .iter()
+            .map(|c| {
+                let lits: Vec<BoolExpr> = (0..complement.vars)
+                    .filter_map(|i| {
+                        c.literal_of(i).map(|p| {
+                            if p {
+                                BoolExpr::not(BoolExpr::Var(i))
+                            } else {
+                                BoolExpr::Var(i)
+                            }
+                        })
+                    })
+                    .collect();
+                if lits.len() == 1 {
+                    lits.into_iter().next().unwrap_or(BoolExpr::Const(false))
+                } else {
+                    BoolExpr::Or(lits)
+                }
+            })
+            .collect();
+        match sums.len() {
+            0 => BoolExpr::Const(true),
+            1 => sums.into_iter().next().unwrap_or(BoolExpr::Const(true)),
+            _ => BoolExpr::And(sums),
+        }
+    }
+
+    /// Infix text with `!`, `&`, `^`, `|`, naming variable `i` by `name(i)`.
+    /// Parentheses appear only where precedence (`!` over `&` over `^` over
+    /// `|`) requires them.
+    pub fn to_text(&self, name: &dyn Fn(usize) -> String) -> String {
+        fn level(e: &BoolExpr) -> u8 {
+            match e {
+                BoolExpr::Or(es) if es.len() > 1 => 1,
+                BoolExpr::Xor(es) if es.len() > 1 => 2,
+                BoolExpr::And(es) if es.len() > 1 => 3,
+                _ => 4,
+            }
+        }
+        fn go(e: &BoolExpr, name: &dyn Fn(usize) -> String, out: &mut String) {
+            let join = |es: &[BoolExpr], op: &str, mine: u8, out: &mut String| {
+                for (k, x) in es.iter().enumerate() {
+                    if k > 0 {
+                        out.push_str(op);
+                    }
+                    if level(x) <= mine {
+                        out.push('(');
+                        go(x, name, out);
+                        out.push(')');
+                    } else {
+                        go(x, name, out);
+                    }
+                }
+            };
+            match e {
+                BoolExpr::Const(b) => out.push(if *b { '1' } else { '0' }),
+                BoolExpr::Var(i) => out.push_str(&name(*i)),
+                BoolExpr::Not(x) => {
+                    out.push('!');
+                    if level(x) < 4
+                        || matches!(**x, BoolExpr::And(_) | BoolExpr::Or(_) | BoolExpr::Xor(_))
+                    {
+                        out.push('(');
+                        go(x, name, out);
+                        out.push(')');
+                    } else {
+                        go(x, name, out);
+                    }
+                }
+                BoolExpr::And(es) if es.is_empty() => out.push('1'),
+                BoolExpr::Or(es) | BoolExpr::Xor(es) if es.is_empty() => out.push('0'),
+                BoolExpr::And(es) => join(es, " & ", 3, out),
+                BoolExpr::Xor(es) => join(es, " ^ ", 2, out),
+                BoolExpr::Or(es) => join(es, " | ", 1, out),
+            }
+        }
+        let mut out = String::new();
+        go(self, name, &mut out);
+        out
+    }
+}

@@ -1,0 +1,69 @@
+//! The expression tree: evaluation, truth tables, and covers turned back
+//! into expressions. Property tests over random expressions of up to eight
+//! inputs: the minimized sum of products and product of sums, and the
+//! hazard-free cover, all compute the original function.
+
+use implica_logic::{
+    BoolExpr, Budget, TruthTable, hazard_free_cover, minimize_pos, minimize_sop, static1_hazards,
+};
+use proptest::prelude::*;
+
+fn expr(vars: usize) -> impl Strategy<Value = BoolExpr> {
+    let leaf = prop_oneof![
+        (0..vars).prop_map(BoolExpr::Var),
+        any::<bool>().prop_map(BoolExpr::Const)
+    ];
+    leaf.prop_recursive(5, 48, 4, |inner| {
+        prop_oneof![
+            inner.clone().prop_map(BoolExpr::not),
+            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::And),
+            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::Or),
+            proptest::collection::vec(inner, 0..4).prop_map(BoolExpr::Xor),
+        ]
+    })
+}
+
+fn inputs(vars: usize, m: usize) -> Vec<bool> {
+    (0..vars).map(|i| (m >> (vars - 1 - i)) & 1 == 1).collect()
+}
+
+proptest! {
+    #[test]
+    fn truth_table_agrees_with_evaluation(e in expr(6)) {
+        let t = e.truth_table(6);
+        for m in 0..64 {
+            prop_assert_eq!(t.get(m), e.eval(&inputs(6, m)));
+        }
+    }
+
+    #[test]
+    fn minimized_forms_compute_the_same_function(e in expr(8)) {
+        let f = e.truth_table(8);
+        let none = TruthTable::zero(8);
+        let sop = minimize_sop(&f, &none, &Budget::default()).unwrap();
+        prop_assert_eq!(BoolExpr::from_cover(&sop.cover).truth_table(8), f.clone());
+        let pos = minimize_pos(&f, &none, &Budget::default()).unwrap();
+        prop_assert_eq!(BoolExpr::from_complement_cover(&pos.cover).truth_table(8), f.clone());
+        let free = hazard_free_cover(&sop.cover, &f, &none, &Budget::default()).unwrap();
+        prop_assert!(static1_hazards(&free, &none).is_empty());
+        prop_assert_eq!(free.truth_table(), f);
+    }
+}
+
+#[test]
+fn text_has_only_the_parentheses_precedence_needs() {
+    use BoolExpr::*;
+    let name = |i: usize| ["a", "b", "c"][i].to_string();
+    let e = Or(vec![
+        And(vec![Var(0), BoolExpr::not(Var(1))]),
+        Xor(vec![Var(1), Var(2)]),
+        Const(false),
+    ]);
+    assert_eq!(e.to_text(&name), "a & !b | b ^ c | 0");
+    let f = And(vec![
+        Or(vec![Var(0), Var(1)]),
+        BoolExpr::not(And(vec![Var(1), Var(2)])),
+    ]);
+    assert_eq!(f.to_text(&name), "(a | b) & !(b & c)");
+    assert_eq!(Xor(vec![And(vec![]), Or(vec![])]).to_text(&name), "1 ^ 0");
+}
