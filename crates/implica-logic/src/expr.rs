@@ -19,7 +19,7 @@ pub enum BoolExpr {
 
 impl BoolExpr {
     /// The negation.
-    pub fn not(e: BoolExpr) -> BoolExpr {
+    pub fn negate(e: BoolExpr) -> BoolExpr {
         BoolExpr::Not(Box::new(e))
     }
 
@@ -82,7 +82,7 @@ impl BoolExpr {
                             if p {
                                 BoolExpr::Var(i)
                             } else {
-                                BoolExpr::not(BoolExpr::Var(i))
+                                BoolExpr::negate(BoolExpr::Var(i))
                             }
                         })
                     })
@@ -113,7 +113,7 @@ impl BoolExpr {
                     .filter_map(|i| {
                         c.literal_of(i).map(|p| {
                             if p {
-                                BoolExpr::not(BoolExpr::Var(i))
+                                BoolExpr::negate(BoolExpr::Var(i))
                             } else {
                                 BoolExpr::Var(i)
                             }

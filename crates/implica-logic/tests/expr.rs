@@ -15,7 +15,7 @@ fn expr(vars: usize) -> impl Strategy<Value = BoolExpr> {
     ];
     leaf.prop_recursive(5, 48, 4, |inner| {
         prop_oneof![
-            inner.clone().prop_map(BoolExpr::not),
+            inner.clone().prop_map(BoolExpr::negate),
             proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::And),
             proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::Or),
             proptest::collection::vec(inner, 0..4).prop_map(BoolExpr::Xor),
@@ -55,14 +55,14 @@ fn text_has_only_the_parentheses_precedence_needs() {
     use BoolExpr::*;
     let name = |i: usize| ["a", "b", "c"][i].to_string();
     let e = Or(vec![
-        And(vec![Var(0), BoolExpr::not(Var(1))]),
+        And(vec![Var(0), BoolExpr::negate(Var(1))]),
         Xor(vec![Var(1), Var(2)]),
         Const(false),
     ]);
     assert_eq!(e.to_text(&name), "a & !b | b ^ c | 0");
     let f = And(vec![
         Or(vec![Var(0), Var(1)]),
-        BoolExpr::not(And(vec![Var(1), Var(2)])),
+        BoolExpr::negate(And(vec![Var(1), Var(2)])),
     ]);
     assert_eq!(f.to_text(&name), "(a | b) & !(b & c)");
     assert_eq!(Xor(vec![And(vec![]), Or(vec![])]).to_text(&name), "1 ^ 0");
