@@ -72,66 +72,14 @@ impl BoolExpr {
 
     /// The sum of products a cover stands for.
     pub fn from_cover(cover: &Cover) -> BoolExpr {
-        let terms: Vec<BoolExpr> = cover
-            .cubes
-            .iter()
-            .map(|c| {
-                let lits: Vec<BoolExpr> = (0..cover.vars)
-                    .filter_map(|i| {
-                        c.literal_of(i).map(|p| {
-                            if p {
-                                BoolExpr::Var(i)
-                            } else {
-                                BoolExpr::negate(BoolExpr::Var(i))
-                            }
-                        })
-                    })
-                    .collect();
-                if lits.len() == 1 {
-                    lits.into_iter().next().unwrap_or(BoolExpr::Const(true))
-                } else {
-                    BoolExpr::And(lits)
-                }
-            })
-            .collect();
-        match terms.len() {
-            0 => BoolExpr::Const(false),
-            1 => terms.into_iter().next().unwrap_or(BoolExpr::Const(false)),
-            _ => BoolExpr::Or(terms),
-        }
+        two_level(cover, false, BoolExpr::And, BoolExpr::Or)
     }
 
     /// The product of sums a cover of the complement stands for (as
     /// [`crate::minimize_pos`] returns it): each cube becomes the sum of its
     /// literals negated.
     pub fn from_complement_cover(complement: &Cover) -> BoolExpr {
-        let sums: Vec<BoolExpr> = complement
-            .cubes
-            .iter()
-            .map(|c| {
-                let lits: Vec<BoolExpr> = (0..complement.vars)
-                    .filter_map(|i| {
-                        c.literal_of(i).map(|p| {
-                            if p {
-                                BoolExpr::negate(BoolExpr::Var(i))
-                            } else {
-                                BoolExpr::Var(i)
-                            }
-                        })
-                    })
-                    .collect();
-                if lits.len() == 1 {
-                    lits.into_iter().next().unwrap_or(BoolExpr::Const(false))
-                } else {
-                    BoolExpr::Or(lits)
-                }
-            })
-            .collect();
-        match sums.len() {
-            0 => BoolExpr::Const(true),
-            1 => sums.into_iter().next().unwrap_or(BoolExpr::Const(true)),
-            _ => BoolExpr::And(sums),
-        }
+        two_level(complement, true, BoolExpr::Or, BoolExpr::And)
     }
 
     /// Infix text with `!`, `&`, `^`, `|`, naming variable `i` by `name(i)`.
@@ -187,4 +135,37 @@ impl BoolExpr {
         go(self, name, &mut out);
         out
     }
+}
+
+/// A two-level expression: `outer` of one `inner` per cube, each of the
+/// cube's literals (negated when `negate`). An empty `And` is 1 and an empty
+/// `Or` is 0, so the empty cover and the universal cube need no special case.
+fn two_level(
+    cover: &Cover,
+    negate: bool,
+    inner: fn(Vec<BoolExpr>) -> BoolExpr,
+    outer: fn(Vec<BoolExpr>) -> BoolExpr,
+) -> BoolExpr {
+    let single = |mut v: Vec<BoolExpr>, wrap: fn(Vec<BoolExpr>) -> BoolExpr| match v.len() {
+        1 => v.pop().unwrap_or(BoolExpr::Const(false)),
+        _ => wrap(v),
+    };
+    let terms = cover
+        .cubes
+        .iter()
+        .map(|c| {
+            let lits: Vec<BoolExpr> = (0..cover.vars)
+                .filter_map(|i| c.literal_of(i).map(|p| (i, p)))
+                .map(|(i, p)| {
+                    if p != negate {
+                        BoolExpr::Var(i)
+                    } else {
+                        BoolExpr::negate(BoolExpr::Var(i))
+                    }
+                })
+                .collect();
+            single(lits, inner)
+        })
+        .collect();
+    single(terms, outer)
 }
