@@ -228,23 +228,60 @@ impl TokenKind {
 /// Splits `src` into tokens, trivia included. Adjacent unknown characters
 /// are merged into one [`TokenKind::Error`] token.
 pub fn lex(src: &str) -> Vec<Token> {
-    let mut out: Vec<Token> = Vec::with_capacity(src.len() / 3 + 1);
-    let mut lexer = TokenKind::lexer(src);
-    while let Some(result) = lexer.next() {
-        let range = lexer.span();
-        let span = Span::new(range.start, range.end);
-        let kind = result.unwrap_or(TokenKind::Error);
-        if kind == TokenKind::Error
-            && let Some(last) = out.last_mut()
-            && last.kind == TokenKind::Error
-            && last.span.end == span.start
-        {
-            last.span.end = span.end;
-            continue;
-        }
-        out.push(Token { kind, span });
+    tokens(src).collect()
+}
+
+/// The tokens of `src`, trivia included, one at a time: what [`lex`]
+/// collects and the parser reads.
+pub fn tokens(src: &str) -> Tokens<'_> {
+    Tokens {
+        lexer: TokenKind::lexer(src),
+        pending: None,
     }
-    out
+}
+
+/// The iterator of [`tokens`].
+pub struct Tokens<'a> {
+    lexer: logos::Lexer<'a, TokenKind>,
+    /// A token read while looking for the end of a run of errors.
+    pending: Option<Token>,
+}
+
+impl Tokens<'_> {
+    #[inline]
+    fn raw(&mut self) -> Option<Token> {
+        let result = self.lexer.next()?;
+        let range = self.lexer.span();
+        Some(Token {
+            kind: result.unwrap_or(TokenKind::Error),
+            span: Span::new(range.start, range.end),
+        })
+    }
+}
+
+impl Iterator for Tokens<'_> {
+    type Item = Token;
+
+    #[inline]
+    fn next(&mut self) -> Option<Token> {
+        // Checked before taking: the common path only reads the tag.
+        let mut tok = if self.pending.is_some() {
+            self.pending.take()?
+        } else {
+            self.raw()?
+        };
+        if tok.kind == TokenKind::Error {
+            while let Some(next) = self.raw() {
+                if next.kind == TokenKind::Error && next.span.start == tok.span.end {
+                    tok.span.end = next.span.end;
+                } else {
+                    self.pending = Some(next);
+                    break;
+                }
+            }
+        }
+        Some(tok)
+    }
 }
 
 #[cfg(test)]

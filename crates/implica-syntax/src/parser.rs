@@ -13,12 +13,11 @@
 
 use crate::ast::*;
 use crate::grammar;
-use crate::lexer::TokenKind as Tok;
+use crate::lexer::{Token, TokenKind as Tok, tokens};
 use crate::{Span, SyntaxError};
 use chumsky::error::{EmptyErr, Rich, RichPattern, RichReason};
 use chumsky::input::Input as _;
 use chumsky::prelude::*;
-use logos::Logos;
 
 /// Deepest nesting of parentheses and `!` accepted in one expression.
 /// Deeper input is reported instead of parsed, so that neither the parser
@@ -129,10 +128,8 @@ fn split_statements(
     // Table/expect body state of the current statement.
     let mut awaiting_body = false;
     let mut body_depth = 0usize;
-    let mut lexer = Tok::lexer(src);
-    while let Some(result) = lexer.next() {
-        let range = lexer.span();
-        let kind = result.unwrap_or(Tok::Error);
+    for Token { kind, span } in tokens(src) {
+        let range = span.range();
         match kind {
             Tok::Whitespace => continue,
             Tok::Comment => {
@@ -149,15 +146,6 @@ fn split_statements(
                     significant.push((Tok::RowEnd, (range.start..range.start).into()));
                 }
                 continue;
-            }
-            Tok::Error => {
-                if let Some(last) = significant.last_mut()
-                    && last.0 == Tok::Error
-                    && last.1.end == range.start
-                {
-                    last.1.end = range.end;
-                    continue;
-                }
             }
             _ => {}
         }
@@ -309,12 +297,10 @@ where
         };
     }
     let (out, errs) = rich.parse(toks.split_token_span(eoi)).into_output_errors();
-    let at_file_end = src[last_end..].trim().is_empty() || {
-        // Only comments follow.
-        src[last_end..]
-            .lines()
-            .all(|l| l.trim().is_empty() || l.trim_start().starts_with('#'))
-    };
+    // Nothing but blank lines and comments follows.
+    let at_file_end = src[last_end..]
+        .lines()
+        .all(|l| l.trim().is_empty() || l.trim_start().starts_with('#'));
     for e in errs {
         errors.push(convert_error(src, toks, &e, at_file_end));
     }
