@@ -70,25 +70,16 @@ pub fn check_text(src: &str) {
 }
 
 fn check_span(src: &str, error: &SyntaxError, from: &str) {
-    let span = error.span;
-    assert!(
-        span.start <= span.end && span.end <= src.len(),
-        "{from} error span {span:?} out of bounds (len {}): {error:?}",
-        src.len()
-    );
-    assert!(
-        src.is_char_boundary(span.start) && src.is_char_boundary(span.end),
-        "{from} error span {span:?} not on char boundaries: {error:?}"
-    );
-    for (related, _) in &error.related {
+    let related = error.related.iter().map(|(span, _)| (*span, "related"));
+    for (span, what) in std::iter::once((error.span, "error")).chain(related) {
         assert!(
-            related.start <= related.end && related.end <= src.len(),
-            "{from} related span {related:?} out of bounds (len {}): {error:?}",
+            span.start <= span.end && span.end <= src.len(),
+            "{from} {what} span {span:?} out of bounds (len {}): {error:?}",
             src.len()
         );
         assert!(
-            src.is_char_boundary(related.start) && src.is_char_boundary(related.end),
-            "{from} related span {related:?} not on char boundaries: {error:?}"
+            src.is_char_boundary(span.start) && src.is_char_boundary(span.end),
+            "{from} {what} span {span:?} not on char boundaries: {error:?}"
         );
     }
 }

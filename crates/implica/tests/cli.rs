@@ -31,6 +31,11 @@ fn root() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
 }
 
+/// The exit status of `implica args`.
+fn status(args: &[&str]) -> Option<i32> {
+    implica(args).status.code()
+}
+
 fn stdout(o: &Output) -> String {
     String::from_utf8_lossy(&o.stdout).into_owned()
 }
@@ -202,16 +207,8 @@ fn invalid_utf8_and_binary_files_are_reported_not_fatal() {
 fn empty_file_is_clean() {
     let dir = tempfile::tempdir().unwrap();
     let f = temp_file(&dir, "empty.imp", b"");
-    assert_eq!(
-        implica(&["check", f.to_str().unwrap()]).status.code(),
-        Some(0)
-    );
-    assert_eq!(
-        implica(&["fmt", "--check", f.to_str().unwrap()])
-            .status
-            .code(),
-        Some(0)
-    );
+    assert_eq!(status(&["check", f.to_str().unwrap()]), Some(0));
+    assert_eq!(status(&["fmt", "--check", f.to_str().unwrap()]), Some(0));
 }
 
 #[test]
@@ -231,12 +228,7 @@ fn fmt_check_lists_files_that_would_change_and_fmt_rewrites_them() {
         fs::read_to_string(&f).unwrap(),
         "input  a, b\noutput y\ny = a & b  # keep me\n"
     );
-    assert_eq!(
-        implica(&["fmt", "--check", f.to_str().unwrap()])
-            .status
-            .code(),
-        Some(0)
-    );
+    assert_eq!(status(&["fmt", "--check", f.to_str().unwrap()]), Some(0));
 }
 
 #[test]
@@ -264,10 +256,7 @@ fn fmt_keeps_permissions_and_leaves_the_original_when_the_write_fails() {
     let dir = tempfile::tempdir().unwrap();
     let f = temp_file(&dir, "p.imp", b"output y\ny=1\n");
     fs::set_permissions(&f, fs::Permissions::from_mode(0o640)).unwrap();
-    assert_eq!(
-        implica(&["fmt", f.to_str().unwrap()]).status.code(),
-        Some(0)
-    );
+    assert_eq!(status(&["fmt", f.to_str().unwrap()]), Some(0));
     assert_eq!(
         fs::metadata(&f).unwrap().permissions().mode() & 0o777,
         0o640
@@ -306,9 +295,6 @@ fn help_is_available_on_every_subcommand() {
         assert!(stdout(&out).contains("Usage: implica"), "{sub}");
     }
     // A usage error exits 2.
-    assert_eq!(implica(&["check"]).status.code(), Some(2));
-    assert_eq!(
-        implica(&["check", "--format", "xml", "x"]).status.code(),
-        Some(2)
-    );
+    assert_eq!(status(&["check"]), Some(2));
+    assert_eq!(status(&["check", "--format", "xml", "x"]), Some(2));
 }
