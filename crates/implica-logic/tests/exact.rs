@@ -210,9 +210,9 @@ fn quine_mccluskey_worked_example() {
 
 #[test]
 fn parity_needs_every_minterm() {
-    // Standard result (e.g. M. M. Mano, Digital Design, on XOR functions and
-    // maps): the minimal sum of products of n-input parity has 2^(n-1) terms
-    // of n literals each.
+    // Standard textbook result (e.g. M. M. Mano, Digital Design, on XOR
+    // functions and maps; the reference is from memory): the minimal sum of
+    // products of n-input parity has 2^(n-1) terms of n literals each.
     for vars in 2..=8usize {
         let mut odd = TruthTable::zero(vars);
         for m in 0..(1usize << vars) {
