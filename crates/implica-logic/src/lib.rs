@@ -16,15 +16,22 @@
 //! bit of a minterm index.
 
 mod analysis;
+mod bdd;
 mod cube;
+mod effort;
 mod expr;
+mod heuristic;
 mod minimize;
 mod truth_table;
+mod urp;
 
 pub use analysis::{
     hazard_free_cover, redundant_literals, redundant_terms, static0_hazards, static1_hazards,
 };
+pub use bdd::{Bdd, BddRef, DEFAULT_MAX_NODES};
 pub use cube::{Cover, Cube};
+pub use effort::{Effort, Interrupted};
 pub use expr::BoolExpr;
+pub use heuristic::{Heuristic, minimize_heuristic};
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
 pub use truth_table::{MAX_VARS, TruthTable};

@@ -1,0 +1,368 @@
+//! Operations on covers of up to 64 inputs that never enumerate minterms:
+//! cofactors, tautology, complement, containment, equivalence with a
+//! counterexample, and dependence. All follow the unate recursive paradigm
+//! (Brayton, Hachtel, McMullen and Sangiovanni-Vincentelli, 1984): a unate
+//! cover is easy, so split on the most binate variable until the pieces are.
+//!
+//! Their cost can be exponential in the inputs (the complement of n-input
+//! parity has 2^(n-1) cubes), so each takes an [`Effort`].
+
+use crate::{Cover, Cube, Effort, Interrupted};
+
+pub(crate) fn mask(vars: usize) -> u64 {
+    if vars >= 64 {
+        u64::MAX
+    } else {
+        (1u64 << vars) - 1
+    }
+}
+
+impl Cube {
+    /// The cofactor of this cube with respect to `p`: `None` when they do not
+    /// intersect; otherwise the cube with every variable `p` fixes made free.
+    pub fn cofactor(&self, p: &Cube, vars: usize) -> Option<Cube> {
+        if self.and(p).is_empty(vars) {
+            return None;
+        }
+        let m = mask(vars);
+        Some(Cube {
+            zero: (self.zero | !p.zero) & m,
+            one: (self.one | !p.one) & m,
+        })
+    }
+
+    /// The smallest cube containing both.
+    pub fn supercube(&self, other: &Cube) -> Cube {
+        Cube {
+            zero: self.zero | other.zero,
+            one: self.one | other.one,
+        }
+    }
+
+    /// One input vector inside the cube (free variables at 0), `None` when
+    /// the cube is empty.
+    pub fn point(&self, vars: usize) -> Option<Vec<bool>> {
+        if self.is_empty(vars) {
+            return None;
+        }
+        Some((0..vars).map(|i| self.zero >> i & 1 == 0).collect())
+    }
+
+    fn is_universe(&self, m: u64) -> bool {
+        self.zero & self.one & m == m
+    }
+}
+
+impl Cover {
+    /// The empty cover (the constant 0) over `vars` inputs.
+    pub fn zero(vars: usize) -> Cover {
+        Cover {
+            vars,
+            cubes: Vec::new(),
+        }
+    }
+
+    /// The cover of the constant 1 over `vars` inputs.
+    pub fn one(vars: usize) -> Cover {
+        Cover {
+            vars,
+            cubes: vec![Cube::universe(vars)],
+        }
+    }
+
+    /// The value for an input vector (`inputs[i]` is variable `i`).
+    pub fn eval(&self, inputs: &[bool]) -> bool {
+        let point = inputs
+            .iter()
+            .enumerate()
+            .fold(Cube { zero: 0, one: 0 }, |c, (i, &b)| {
+                if b {
+                    Cube {
+                        one: c.one | 1 << i,
+                        ..c
+                    }
+                } else {
+                    Cube {
+                        zero: c.zero | 1 << i,
+                        ..c
+                    }
+                }
+            });
+        self.cubes.iter().any(|c| c.contains(&point))
+    }
+
+    /// The cofactor with respect to cube `p`: a cover, free in the variables
+    /// `p` fixes, that equals this one everywhere inside `p`.
+    pub fn cofactor(&self, p: &Cube) -> Cover {
+        Cover {
+            vars: self.vars,
+            cubes: self
+                .cubes
+                .iter()
+                .filter_map(|c| c.cofactor(p, self.vars))
+                .collect(),
+        }
+    }
+
+    /// The union of two covers over the same inputs.
+    pub fn union(&self, other: &Cover) -> Cover {
+        assert_eq!(self.vars, other.vars, "covers over different inputs");
+        let mut cubes = self.cubes.clone();
+        cubes.extend_from_slice(&other.cubes);
+        Cover {
+            vars: self.vars,
+            cubes,
+        }
+    }
+
+    /// Drops empty cubes and cubes contained in another one (single-cube
+    /// containment); keeps the first of equal cubes.
+    pub fn remove_contained(&mut self) {
+        let vars = self.vars;
+        self.cubes.retain(|c| !c.is_empty(vars));
+        // Larger cubes first, so a cube is only checked against earlier ones.
+        self.cubes.sort_by_key(|c| c.literals(vars));
+        let mut kept: Vec<Cube> = Vec::with_capacity(self.cubes.len());
+        for &c in &self.cubes {
+            if !kept.iter().any(|k| k.contains(&c)) {
+                kept.push(c);
+            }
+        }
+        self.cubes = kept;
+    }
+
+    /// Whether the cover is 1 everywhere.
+    pub fn is_tautology(&self, effort: &mut Effort) -> Result<bool, Interrupted> {
+        Ok(zero_point(&self.cubes, self.vars, effort)?.is_none())
+    }
+
+    /// An input vector where the cover is 0, or `None` when it is a tautology.
+    pub fn find_zero(&self, effort: &mut Effort) -> Result<Option<Vec<bool>>, Interrupted> {
+        Ok(zero_point(&self.cubes, self.vars, effort)?.and_then(|c| c.point(self.vars)))
+    }
+
+    /// Whether every input vector of cube `c` makes the cover 1.
+    pub fn contains_cube(&self, c: &Cube, effort: &mut Effort) -> Result<bool, Interrupted> {
+        Ok(self.uncovered_point(c, effort)?.is_none())
+    }
+
+    /// An input vector inside `c` where the cover is 0, if any.
+    fn uncovered_point(&self, c: &Cube, effort: &mut Effort) -> Result<Option<Cube>, Interrupted> {
+        if c.is_empty(self.vars) {
+            return Ok(None);
+        }
+        let f = self.cofactor(c);
+        Ok(zero_point(&f.cubes, self.vars, effort)?.map(|w| w.and(c)))
+    }
+
+    /// Whether `self` is 1 wherever `other` is 1. On failure, an input vector
+    /// where `other` is 1 and `self` is 0.
+    pub fn covers(
+        &self,
+        other: &Cover,
+        effort: &mut Effort,
+    ) -> Result<Option<Vec<bool>>, Interrupted> {
+        assert_eq!(self.vars, other.vars, "covers over different inputs");
+        for c in &other.cubes {
+            if let Some(w) = self.uncovered_point(c, effort)? {
+                return Ok(w.point(self.vars));
+            }
+        }
+        Ok(None)
+    }
+
+    /// Whether the two covers agree on every input vector outside the
+    /// don't-cares `dc`; on failure, an input vector where they differ.
+    pub fn equivalent(
+        &self,
+        other: &Cover,
+        dc: &Cover,
+        effort: &mut Effort,
+    ) -> Result<Option<Vec<bool>>, Interrupted> {
+        if let Some(w) = self.union(dc).covers(other, effort)? {
+            return Ok(Some(w));
+        }
+        other.union(dc).covers(self, effort)
+    }
+
+    /// The complement, as a cover.
+    pub fn complement(&self, effort: &mut Effort) -> Result<Cover, Interrupted> {
+        let mut cubes = complement(&self.cubes, self.vars, effort)?;
+        cubes.sort();
+        Ok(Cover {
+            vars: self.vars,
+            cubes,
+        })
+    }
+
+    /// Whether the function's value depends on variable `i`. On success, an
+    /// input vector where flipping `i` flips the value.
+    pub fn depends_on(
+        &self,
+        i: usize,
+        effort: &mut Effort,
+    ) -> Result<Option<Vec<bool>>, Interrupted> {
+        let lo = self.cofactor(&Cube::literal(self.vars, i, false));
+        let hi = self.cofactor(&Cube::literal(self.vars, i, true));
+        lo.equivalent(&hi, &Cover::zero(self.vars), effort)
+    }
+
+    /// The variables the function depends on.
+    pub fn support(&self, effort: &mut Effort) -> Result<Vec<usize>, Interrupted> {
+        let m = mask(self.vars);
+        // A variable no cube has a literal of cannot matter.
+        let mentioned = self
+            .cubes
+            .iter()
+            .fold(0u64, |acc, c| acc | (!(c.zero & c.one) & m));
+        let mut out = Vec::new();
+        for i in 0..self.vars {
+            if mentioned >> i & 1 == 1 && self.depends_on(i, effort)?.is_some() {
+                out.push(i);
+            }
+        }
+        Ok(out)
+    }
+}
+
+/// Variables with a positive literal somewhere, and with a negative one.
+fn polarities(cubes: &[Cube], m: u64) -> (u64, u64) {
+    cubes.iter().fold((0, 0), |(pos, neg), c| {
+        (pos | (!c.zero & m), neg | (!c.one & m))
+    })
+}
+
+/// The variable to split on: the one with literals in the most cubes,
+/// preferring binate ones, ties to the most balanced.
+fn split_variable(cubes: &[Cube], vars: usize, candidates: u64) -> usize {
+    let mut best = (0usize, 0usize, usize::MAX);
+    let mut best_var = candidates.trailing_zeros() as usize;
+    let mut rest = candidates;
+    while rest != 0 {
+        let i = rest.trailing_zeros() as usize;
+        rest &= rest - 1;
+        let (mut p, mut n) = (0usize, 0usize);
+        for c in cubes {
+            match ((c.zero >> i) & 1, (c.one >> i) & 1) {
+                (0, 1) => p += 1,
+                (1, 0) => n += 1,
+                _ => {}
+            }
+        }
+        let key = (p + n, p.min(n), p.abs_diff(n));
+        if key.0 > best.0 || (key.0 == best.0 && (key.1 > best.1 || key.2 < best.2)) {
+            best = key;
+            best_var = i;
+        }
+    }
+    debug_assert!(best_var < vars);
+    best_var
+}
+
+/// A cube on which the cover is 0 everywhere, or `None` for a tautology.
+fn zero_point(
+    cubes: &[Cube],
+    vars: usize,
+    effort: &mut Effort,
+) -> Result<Option<Cube>, Interrupted> {
+    effort.spend(1 + cubes.len() as u64)?;
+    let m = mask(vars);
+    let live: Vec<Cube> = cubes
+        .iter()
+        .copied()
+        .filter(|c| !c.is_empty(vars))
+        .collect();
+    if live.iter().any(|c| c.is_universe(m)) {
+        return Ok(None);
+    }
+    let (pos, neg) = polarities(&live, m);
+    let binate = pos & neg;
+    if binate == 0 {
+        // Unate without the universal cube: every cube has a literal, and
+        // setting each variable against its literals makes all of them 0.
+        return Ok(Some(Cube {
+            zero: m & !neg,
+            one: m & !pos,
+        }));
+    }
+    zero_by_split(&live, vars, binate, effort)
+}
+
+fn zero_by_split(
+    live: &[Cube],
+    vars: usize,
+    binate: u64,
+    effort: &mut Effort,
+) -> Result<Option<Cube>, Interrupted> {
+    let i = split_variable(live, vars, binate);
+    for positive in [true, false] {
+        let lit = Cube::literal(vars, i, positive);
+        let f: Vec<Cube> = live.iter().filter_map(|c| c.cofactor(&lit, vars)).collect();
+        if let Some(w) = zero_point(&f, vars, effort)? {
+            return Ok(Some(w.and(&lit)));
+        }
+    }
+    Ok(None)
+}
+
+fn complement(cubes: &[Cube], vars: usize, effort: &mut Effort) -> Result<Vec<Cube>, Interrupted> {
+    effort.spend(1 + cubes.len() as u64)?;
+    let m = mask(vars);
+    let live: Vec<Cube> = cubes
+        .iter()
+        .copied()
+        .filter(|c| !c.is_empty(vars))
+        .collect();
+    if live.is_empty() {
+        return Ok(vec![Cube::universe(vars)]);
+    }
+    if live.iter().any(|c| c.is_universe(m)) {
+        return Ok(Vec::new());
+    }
+    if live.len() == 1 {
+        // De Morgan: one cube of the opposite literal per literal.
+        let c = live[0];
+        let mut out = Vec::new();
+        for i in 0..vars {
+            if let Some(p) = c.literal_of(i) {
+                out.push(Cube::literal(vars, i, !p));
+            }
+        }
+        effort.spend(out.len() as u64)?;
+        return Ok(out);
+    }
+    let (pos, neg) = polarities(&live, m);
+    let binate = pos & neg;
+    let i = split_variable(&live, vars, if binate != 0 { binate } else { pos | neg });
+    let mut halves = Vec::with_capacity(2);
+    for positive in [true, false] {
+        let lit = Cube::literal(vars, i, positive);
+        let f: Vec<Cube> = live.iter().filter_map(|c| c.cofactor(&lit, vars)).collect();
+        halves.push(complement(&f, vars, effort)?);
+    }
+    let (hi, lo) = (&halves[0], &halves[1]);
+    // Cubes in both halves do not need the split literal.
+    let lo_set: std::collections::HashSet<Cube> = lo.iter().copied().collect();
+    let hi_set: std::collections::HashSet<Cube> = hi.iter().copied().collect();
+    let mut out = Vec::with_capacity(hi.len() + lo.len());
+    let (plit, nlit) = (Cube::literal(vars, i, true), Cube::literal(vars, i, false));
+    for c in hi {
+        if lo_set.contains(c) {
+            out.push(*c);
+        } else {
+            out.push(c.and(&plit));
+        }
+    }
+    for c in lo {
+        if !hi_set.contains(c) {
+            out.push(c.and(&nlit));
+        }
+    }
+    effort.spend(out.len() as u64)?;
+    // Tidy up: a cube of one half may contain the other's after merging.
+    let mut cover = Cover { vars, cubes: out };
+    if cover.cubes.len() <= 2048 {
+        cover.remove_contained();
+    }
+    Ok(cover.cubes)
+}
