@@ -8,7 +8,7 @@
 //! input under the don't-cares by cube containment before it is returned;
 //! when that check cannot finish, the input comes back unchanged.
 
-use crate::urp::mask;
+use crate::urp::{mask, split_variable};
 use crate::{Cover, Cube, Effort, Interrupted};
 
 /// The outcome of [`minimize_heuristic`].
@@ -109,12 +109,26 @@ fn improve(on: &Cover, dc: &Cover, effort: &mut Effort) -> Result<Found, Interru
     let vars = on.vars;
     let mut f = on.clone();
     f.remove_contained();
-    let offset = f.union(dc).complement(effort)?;
+    let care = f.union(dc);
+    // The off-set makes expansion fast, but it can be far larger than the
+    // function; past a third of the budget, expand against the care set.
+    let mut part = effort.part(effort.remaining() / 3);
+    let offset = care.complement(&mut part);
+    effort.spend(part.used())?;
+    let offset = match offset {
+        Ok(r) => Some(r),
+        Err(Interrupted::OutOfBudget) => None,
+        Err(e) => return Err(e),
+    };
+    let limit = match &offset {
+        Some(r) => Limit::Offset(r),
+        None => Limit::Care(&care),
+    };
     let mut best: Option<Cover> = None;
     let mut passes = 0;
     let mut current = f;
     let first = (|| -> Result<Cover, Interrupted> {
-        let g = expand(&current, &offset, effort)?;
+        let g = expand(&current, &limit, effort)?;
         irredundant(&g, dc, effort)
     })();
     match first {
@@ -129,7 +143,7 @@ fn improve(on: &Cover, dc: &Cover, effort: &mut Effort) -> Result<Found, Interru
         passes += 1;
         let step = (|| -> Result<Cover, Interrupted> {
             let g = reduce(&current, dc, effort)?;
-            let g = expand(&g, &offset, effort)?;
+            let g = expand(&g, &limit, effort)?;
             irredundant(&g, dc, effort)
         })();
         let next = match step {
@@ -154,9 +168,21 @@ fn literal_vars(c: &Cube, m: u64) -> u64 {
     !(c.zero & c.one) & m
 }
 
-/// Each cube of `f` made prime against the off-set `offset`, preferring
-/// expansions that swallow other cubes; swallowed cubes are dropped.
-fn expand(f: &Cover, offset: &Cover, effort: &mut Effort) -> Result<Cover, Interrupted> {
+/// What a cube may not grow into: the off-set, when its cover could be
+/// computed within budget, or else the care set `on | dc` it must stay in
+/// (slower: every step is a containment check instead of bit tests).
+enum Limit<'c> {
+    Offset(&'c Cover),
+    Care(&'c Cover),
+}
+
+/// Targets tried per cube when each try is a containment check.
+const CARE_TARGETS: usize = 12;
+
+/// Each cube of `f` made prime (no literal can be dropped without leaving
+/// `on | dc`), preferring growth that swallows other cubes; swallowed cubes
+/// are dropped.
+fn expand(f: &Cover, limit: &Limit, effort: &mut Effort) -> Result<Cover, Interrupted> {
     let vars = f.vars;
     let m = mask(vars);
     let mut order: Vec<Cube> = f.cubes.clone();
@@ -169,17 +195,29 @@ fn expand(f: &Cover, offset: &Cover, effort: &mut Effort) -> Result<Cover, Inter
             continue;
         }
         let c = order[k];
+        let grow = |freed: u64| Cube {
+            zero: c.zero | freed,
+            one: c.one | freed,
+        };
         // For each off-set cube, the variables where it and `c` disagree:
         // `c` grown over variables S stays off it while S misses one of them.
-        let blocking: Vec<u64> = offset
-            .cubes
-            .iter()
-            .map(|r| !((c.zero & r.zero) | (c.one & r.one)) & m)
-            .collect();
+        let blocking: Vec<u64> = match limit {
+            Limit::Offset(r) => r
+                .cubes
+                .iter()
+                .map(|r| !((c.zero & r.zero) | (c.one & r.one)) & m)
+                .collect(),
+            Limit::Care(_) => Vec::new(),
+        };
         effort.spend(1 + blocking.len() as u64 / 8)?;
         let feasible = |freed: u64, effort: &mut Effort| -> Result<bool, Interrupted> {
-            effort.spend(1 + blocking.len() as u64 / 64)?;
-            Ok(blocking.iter().all(|b| b & !freed != 0))
+            match limit {
+                Limit::Offset(_) => {
+                    effort.spend(1 + blocking.len() as u64 / 64)?;
+                    Ok(blocking.iter().all(|b| b & !freed != 0))
+                }
+                Limit::Care(care) => care.contains_cube(&grow(freed), effort),
+            }
         };
         let lits = literal_vars(&c, m);
         let mut freed = 0u64;
@@ -195,6 +233,9 @@ fn expand(f: &Cover, offset: &Cover, effort: &mut Effort) -> Result<Cover, Inter
             })
             .collect();
         targets.sort_unstable();
+        if let Limit::Care(_) = limit {
+            targets.truncate(CARE_TARGETS);
+        }
         for &(_, _, need) in &targets {
             let grown = freed | need;
             if grown != freed && feasible(grown, effort)? {
@@ -211,10 +252,7 @@ fn expand(f: &Cover, offset: &Cover, effort: &mut Effort) -> Result<Cover, Inter
                 freed = grown;
             }
         }
-        let prime = Cube {
-            zero: c.zero | freed,
-            one: c.one | freed,
-        };
+        let prime = grow(freed);
         for j in 0..order.len() {
             if !covered[j] && prime.contains(&order[j]) {
                 covered[j] = true;
@@ -321,18 +359,7 @@ fn supercube_of_complement(
         (p | (!c.zero & m), n | (!c.one & m))
     });
     let candidates = if pos & neg != 0 { pos & neg } else { pos | neg };
-    // Split on the variable with literals in the most cubes.
-    let mut best = (0usize, candidates.trailing_zeros() as usize);
-    let mut rest = candidates;
-    while rest != 0 {
-        let i = rest.trailing_zeros() as usize;
-        rest &= rest - 1;
-        let n = cubes.iter().filter(|c| c.literal_of(i).is_some()).count();
-        if n > best.0 {
-            best = (n, i);
-        }
-    }
-    let i = best.1;
+    let i = split_variable(cubes, vars, candidates);
     let mut result: Option<Cube> = None;
     for positive in [true, false] {
         let lit = Cube::literal(vars, i, positive);

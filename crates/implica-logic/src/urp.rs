@@ -233,29 +233,34 @@ fn polarities(cubes: &[Cube], m: u64) -> (u64, u64) {
 }
 
 /// The variable to split on: the one with literals in the most cubes,
-/// preferring binate ones, ties to the most balanced.
-fn split_variable(cubes: &[Cube], vars: usize, candidates: u64) -> usize {
-    let mut best = (0usize, 0usize, usize::MAX);
+/// ties to the most balanced, among `candidates` (binate ones, when any).
+pub(crate) fn split_variable(cubes: &[Cube], vars: usize, candidates: u64) -> usize {
+    let m = mask(vars);
+    let (mut pos, mut neg) = ([0u32; 64], [0u32; 64]);
+    for c in cubes {
+        let mut p = !c.zero & m & candidates;
+        while p != 0 {
+            pos[p.trailing_zeros() as usize] += 1;
+            p &= p - 1;
+        }
+        let mut n = !c.one & m & candidates;
+        while n != 0 {
+            neg[n.trailing_zeros() as usize] += 1;
+            n &= n - 1;
+        }
+    }
     let mut best_var = candidates.trailing_zeros() as usize;
+    let mut best = (0u32, 0u32);
     let mut rest = candidates;
     while rest != 0 {
         let i = rest.trailing_zeros() as usize;
         rest &= rest - 1;
-        let (mut p, mut n) = (0usize, 0usize);
-        for c in cubes {
-            match ((c.zero >> i) & 1, (c.one >> i) & 1) {
-                (0, 1) => p += 1,
-                (1, 0) => n += 1,
-                _ => {}
-            }
-        }
-        let key = (p + n, p.min(n), p.abs_diff(n));
-        if key.0 > best.0 || (key.0 == best.0 && (key.1 > best.1 || key.2 < best.2)) {
+        let key = (pos[i] + neg[i], pos[i].min(neg[i]));
+        if key > best {
             best = key;
             best_var = i;
         }
     }
-    debug_assert!(best_var < vars);
     best_var
 }
 
@@ -362,6 +367,8 @@ fn complement(cubes: &[Cube], vars: usize, effort: &mut Effort) -> Result<Vec<Cu
     // Tidy up: a cube of one half may contain the other's after merging.
     let mut cover = Cover { vars, cubes: out };
     if cover.cubes.len() <= 2048 {
+        let n = cover.cubes.len() as u64;
+        effort.spend(n * n / 64)?;
         cover.remove_contained();
     }
     Ok(cover.cubes)

@@ -1,0 +1,248 @@
+//! The heuristic minimizer: equivalent and never larger, on small functions
+//! (checked by truth table and against the exact minimum) and on wide covers
+//! of 24 to 40 inputs (checked without enumeration: by cube containment,
+//! which tests/urp.rs and tests/bdd.rs check against truth tables and
+//! diagrams, by a diagram where one fits, and by simulation on random
+//! vectors, which shares no code with either).
+
+use implica_logic::{
+    Bdd, Budget, Cover, Cube, Effort, Interrupted, TruthTable, minimize_heuristic, minimize_sop,
+};
+
+struct Rng(u64);
+
+impl Rng {
+    fn next(&mut self) -> u64 {
+        self.0 ^= self.0 << 13;
+        self.0 ^= self.0 >> 7;
+        self.0 ^= self.0 << 17;
+        self.0
+    }
+}
+
+fn random_cube(rng: &mut Rng, vars: usize, literals: usize) -> Cube {
+    let mut c = Cube::universe(vars);
+    for _ in 0..literals {
+        let i = (rng.next() % vars as u64) as usize;
+        c = c.and(&Cube::literal(vars, i, rng.next().is_multiple_of(2)));
+    }
+    c
+}
+
+fn random_cover(rng: &mut Rng, vars: usize, cubes: usize, literals: usize) -> Cover {
+    Cover {
+        vars,
+        cubes: (0..cubes)
+            .map(|_| random_cube(rng, vars, literals))
+            .collect(),
+    }
+}
+
+fn cost(c: &Cover) -> (usize, usize) {
+    (c.len(), c.literals())
+}
+
+fn big() -> Effort<'static> {
+    Effort::new(u64::MAX / 2)
+}
+
+/// A cover of the minterms of a truth table, one cube each.
+fn minterm_cover(t: &TruthTable) -> Cover {
+    Cover {
+        vars: t.vars(),
+        cubes: t
+            .minterms()
+            .into_iter()
+            .map(|m| Cube::minterm(t.vars(), m))
+            .collect(),
+    }
+}
+
+#[test]
+fn small_functions_are_equivalent_and_no_smaller_than_the_exact_minimum() {
+    let mut rng = Rng(0xA11CE);
+    let mut reached_minimum = 0;
+    let rounds = 300;
+    for round in 0..rounds {
+        let vars = 3 + round % 6;
+        let on = random_cover(&mut rng, vars, 2 + round % 12, 2 + round % 3);
+        let dc = random_cover(&mut rng, vars, round % 3, vars - 1);
+        let r = minimize_heuristic(&on, &dc, &mut big()).unwrap();
+        assert!(r.complete);
+        let (ton, tdc) = (on.truth_table(), dc.truth_table());
+        let need = ton.and_not(&tdc);
+        let got = r.cover.truth_table();
+        assert!(got.covers(&need), "round {round}: lost part of the on-set");
+        assert!(ton.or(&tdc).covers(&got), "round {round}: left on | dc");
+        assert!(cost(&r.cover) <= cost(&on), "round {round}: grew");
+        let exact = minimize_sop(&need, &tdc, &Budget::default()).unwrap();
+        assert!(exact.proven_minimal);
+        assert!(
+            cost(&exact.cover) <= cost(&r.cover),
+            "round {round}: better than a proven minimum"
+        );
+        if cost(&exact.cover) == cost(&r.cover) {
+            reached_minimum += 1;
+        }
+    }
+    eprintln!("heuristic reached the exact minimum in {reached_minimum} of {rounds}");
+    // A heuristic, but a good one: it finds the minimum most of the time on
+    // functions this small (the figure is what this implementation does,
+    // kept as a guard against quality regressions).
+    assert!(
+        reached_minimum * 100 >= rounds * 95,
+        "minimum reached in only {reached_minimum} of {rounds}"
+    );
+}
+
+#[test]
+fn published_examples() {
+    // Wikipedia, "Quine–McCluskey algorithm": f = Σm(4,8,10,11,12,15) +
+    // d(9,14) has a minimum of 3 terms and 7 literals.
+    let on = TruthTable::from_minterms(4, &[4, 8, 10, 11, 12, 15]);
+    let dc = TruthTable::from_minterms(4, &[9, 14]);
+    let r = minimize_heuristic(&minterm_cover(&on), &minterm_cover(&dc), &mut big()).unwrap();
+    assert_eq!(cost(&r.cover), (3, 7));
+    // Full adder carry = AB + ACin + BCin (common practice): 3 terms, 6 literals.
+    let carry = TruthTable::from_minterms(3, &[3, 5, 6, 7]);
+    let r = minimize_heuristic(&minterm_cover(&carry), &Cover::zero(3), &mut big()).unwrap();
+    assert_eq!(cost(&r.cover), (3, 6));
+    // n-input parity cannot be made smaller than its 2^(n-1) minterms
+    // (standard textbook result); the heuristic returns it unchanged.
+    let odd: Vec<usize> = (0..256)
+        .filter(|m: &usize| m.count_ones() % 2 == 1)
+        .collect();
+    let parity = minterm_cover(&TruthTable::from_minterms(8, &odd));
+    let r = minimize_heuristic(&parity, &Cover::zero(8), &mut big()).unwrap();
+    assert_eq!(cost(&r.cover), (128, 1024));
+}
+
+#[test]
+fn a_shattered_cover_of_forty_inputs_comes_back_whole() {
+    // f = x0 x1 | x2 !x3 x4 | x30 x39 over 40 inputs, each term split into
+    // pieces along other variables: the three terms are its only primes
+    // that matter (no two have opposite literals, so there is no consensus),
+    // hence its unique minimum.
+    let n = 40;
+    let lit = |i, p| Cube::literal(n, i, p);
+    let terms = [
+        lit(0, true).and(&lit(1, true)),
+        lit(2, true).and(&lit(3, false)).and(&lit(4, true)),
+        lit(30, true).and(&lit(39, true)),
+    ];
+    let mut pieces = Vec::new();
+    for (k, t) in terms.iter().enumerate() {
+        let splits = [10 + k, 17 + k, 25 + k, 33 + k];
+        for m in 0..16usize {
+            let mut c = *t;
+            for (b, &v) in splits.iter().enumerate() {
+                c = c.and(&lit(v, m >> b & 1 == 1));
+            }
+            pieces.push(c);
+        }
+    }
+    let on = Cover {
+        vars: n,
+        cubes: pieces,
+    };
+    let r = minimize_heuristic(&on, &Cover::zero(n), &mut big()).unwrap();
+    let mut got = r.cover.cubes.clone();
+    got.sort();
+    let mut want = terms.to_vec();
+    want.sort();
+    assert_eq!(got, want);
+}
+
+/// The value of a cover at a random vector, evaluated directly.
+fn simulate(rng: &mut Rng, a: &Cover, b: &Cover, dc: &Cover, vectors: usize) -> Option<Vec<bool>> {
+    for _ in 0..vectors {
+        let bits = rng.next();
+        let p: Vec<bool> = (0..a.vars).map(|i| bits >> i & 1 == 1).collect();
+        if !dc.eval(&p) && a.eval(&p) != b.eval(&p) {
+            return Some(p);
+        }
+    }
+    None
+}
+
+#[test]
+fn wide_random_covers_stay_equivalent_and_shrink() {
+    let mut rng = Rng(0x0DD_BA11);
+    let mut shrunk = 0;
+    let mut by_diagram = 0;
+    let cases = [
+        (24, 50),
+        (24, 400),
+        (28, 120),
+        (32, 50),
+        (32, 200),
+        (36, 80),
+        (40, 50),
+        (40, 150),
+    ];
+    for (round, &(vars, terms)) in cases.iter().enumerate() {
+        let on = random_cover(&mut rng, vars, terms, 10);
+        let dc = random_cover(&mut rng, vars, terms / 10, 14);
+        let r = minimize_heuristic(&on, &dc, &mut Effort::new(60_000_000)).unwrap();
+        assert!(cost(&r.cover) <= cost(&on), "round {round}: grew");
+        if cost(&r.cover) < cost(&on) {
+            shrunk += 1;
+        }
+        // Containment both ways, under the don't-cares.
+        assert_eq!(
+            r.cover.equivalent(&on, &dc, &mut big()).unwrap(),
+            None,
+            "round {round}"
+        );
+        assert_eq!(
+            simulate(&mut rng, &r.cover, &on, &dc, 20_000),
+            None,
+            "round {round}"
+        );
+        // A diagram, when it fits in 1M nodes: (on & !dc) must imply the
+        // result, and the result must imply on | dc.
+        let mut b = Bdd::with_max_nodes(vars, 1 << 20);
+        let mut e = Effort::new(20_000_000);
+        let check = (|| {
+            let (fo, fd, fr) = (
+                b.from_cover(&on, &mut e)?,
+                b.from_cover(&dc, &mut e)?,
+                b.from_cover(&r.cover, &mut e)?,
+            );
+            let d = b.xor(fo, fr, &mut e)?;
+            let nd = b.not(fd, &mut e)?;
+            b.and(d, nd, &mut e)
+        })();
+        if let Ok(diff) = check {
+            by_diagram += 1;
+            assert_eq!(b.any_one(diff), None, "round {round}");
+        }
+    }
+    eprintln!(
+        "{shrunk} of {} shrank, {by_diagram} checked by a diagram",
+        cases.len()
+    );
+    assert!(
+        shrunk >= cases.len() - 1,
+        "only {shrunk} of {} shrank",
+        cases.len()
+    );
+    assert!(by_diagram >= 3, "only {by_diagram} checked by a diagram");
+}
+
+#[test]
+fn budget_and_cancellation() {
+    let mut rng = Rng(0xFEED);
+    let on = random_cover(&mut rng, 32, 200, 10);
+    // Far too little work: the input comes back, marked incomplete.
+    let r = minimize_heuristic(&on, &Cover::zero(32), &mut Effort::new(1_000)).unwrap();
+    assert!(!r.complete);
+    assert_eq!(r.cover, on);
+    let stop = || true;
+    let e = minimize_heuristic(
+        &on,
+        &Cover::zero(32),
+        &mut Effort::unlimited().with_cancel(&stop),
+    );
+    assert_eq!(e.unwrap_err(), Interrupted::Cancelled);
+}
