@@ -339,37 +339,49 @@ fn complement(cubes: &[Cube], vars: usize, effort: &mut Effort) -> Result<Vec<Cu
     let (pos, neg) = polarities(&live, m);
     let binate = pos & neg;
     let i = split_variable(&live, vars, if binate != 0 { binate } else { pos | neg });
-    let mut halves = Vec::with_capacity(2);
+    let mut halves: Vec<Vec<Cube>> = Vec::with_capacity(2);
     for positive in [true, false] {
         let lit = Cube::literal(vars, i, positive);
         let f: Vec<Cube> = live.iter().filter_map(|c| c.cofactor(&lit, vars)).collect();
         halves.push(complement(&f, vars, effort)?);
     }
-    let (hi, lo) = (&halves[0], &halves[1]);
-    // Cubes in both halves do not need the split literal.
-    let lo_set: std::collections::HashSet<Cube> = lo.iter().copied().collect();
-    let hi_set: std::collections::HashSet<Cube> = hi.iter().copied().collect();
-    let mut out = Vec::with_capacity(hi.len() + lo.len());
+    let (mut hi, mut lo) = (halves.swap_remove(0), halves.swap_remove(0));
+    hi.sort_unstable();
+    lo.sort_unstable();
+    // Cubes in both halves do not need the split literal. Each half is free
+    // of contained cubes (by induction), and cubes with opposite split
+    // literals cannot contain each other, so the only containment left is
+    // a one-sided cube inside a shared one.
+    let (mut common, mut hi_only, mut lo_only) = (Vec::new(), Vec::new(), Vec::new());
+    let (mut a, mut b) = (0, 0);
+    while a < hi.len() || b < lo.len() {
+        match (hi.get(a), lo.get(b)) {
+            (Some(x), Some(y)) if x == y => {
+                common.push(*x);
+                a += 1;
+                b += 1;
+            }
+            (Some(x), Some(y)) if x < y => {
+                hi_only.push(*x);
+                a += 1;
+            }
+            (Some(x), None) => {
+                hi_only.push(*x);
+                a += 1;
+            }
+            (_, Some(y)) => {
+                lo_only.push(*y);
+                b += 1;
+            }
+            (None, None) => break,
+        }
+    }
+    effort.spend((hi_only.len() + lo_only.len()) as u64 * (1 + common.len() as u64 / 16))?;
+    let outside = |c: &Cube| !common.iter().any(|d| d.contains(c));
     let (plit, nlit) = (Cube::literal(vars, i, true), Cube::literal(vars, i, false));
-    for c in hi {
-        if lo_set.contains(c) {
-            out.push(*c);
-        } else {
-            out.push(c.and(&plit));
-        }
-    }
-    for c in lo {
-        if !hi_set.contains(c) {
-            out.push(c.and(&nlit));
-        }
-    }
-    effort.spend(out.len() as u64)?;
-    // Tidy up: a cube of one half may contain the other's after merging.
-    let mut cover = Cover { vars, cubes: out };
-    if cover.cubes.len() <= 2048 {
-        let n = cover.cubes.len() as u64;
-        effort.spend(n * n / 64)?;
-        cover.remove_contained();
-    }
-    Ok(cover.cubes)
+    let mut out = Vec::with_capacity(hi.len() + lo.len());
+    out.extend(hi_only.iter().filter(|c| outside(c)).map(|c| c.and(&plit)));
+    out.extend(lo_only.iter().filter(|c| outside(c)).map(|c| c.and(&nlit)));
+    out.extend_from_slice(&common);
+    Ok(out)
 }
