@@ -18,7 +18,9 @@
 mod analysis;
 mod cube;
 mod expr;
+mod gates;
 mod minimize;
+mod render;
 mod truth_table;
 
 pub use analysis::{
@@ -26,5 +28,9 @@ pub use analysis::{
 };
 pub use cube::{Cover, Cube};
 pub use expr::BoolExpr;
+pub use gates::{Cost, Gate, GateError, GateKind, GateNetwork, NetworkCost, Signal};
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
+pub use render::{
+    DONT_CARE, Format, Function, RenderError, render_karnaugh_map, render_truth_table,
+};
 pub use truth_table::{MAX_VARS, TruthTable};
