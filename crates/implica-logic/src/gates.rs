@@ -470,11 +470,20 @@ struct Builder {
 }
 
 impl Builder {
-    /// The gate over `inputs`, built once: inputs are sorted and repeated
-    /// inputs dropped (both gates are commutative and idempotent).
+    /// The gate over `inputs`: inputs are sorted and repeated inputs dropped
+    /// (both gates are commutative and idempotent), so a gate left with one
+    /// input is an inverter, and cancels against one.
     fn gate(&mut self, mut inputs: Vec<Signal>) -> Signal {
         inputs.sort();
         inputs.dedup();
+        match inputs[..] {
+            [s] => self.not(s),
+            _ => self.shared(inputs),
+        }
+    }
+
+    /// The gate over `inputs` as given, built once.
+    fn shared(&mut self, inputs: Vec<Signal>) -> Signal {
         let g = Gate {
             kind: self.kind,
             inputs,
@@ -492,7 +501,7 @@ impl Builder {
         match s {
             Signal::Const(b) => Signal::Const(!b),
             Signal::Gate(j) if self.gates[j].inputs.len() == 1 => self.gates[j].inputs[0],
-            s => self.gate(vec![s]),
+            s => self.shared(vec![s]),
         }
     }
 
