@@ -20,7 +20,7 @@
 //!      1     1       | 1\n"
 //! );
 //! let map = render_karnaugh_map(&inputs, &open, None, Format::Markdown).unwrap();
-//! assert!(map.contains("| level \\\\ stopped | 0 | 1 |"));
+//! assert!(map.contains("| level \\ stopped | 0 | 1 |"));
 //! ```
 //!
 //! Conventions: the first input is the most significant bit of a minterm
@@ -195,18 +195,31 @@ impl Grid {
     }
 }
 
-/// Text safe inside a Markdown table cell or paragraph: punctuation that
-/// Markdown reads is escaped, line breaks and other controls become spaces.
+/// Text safe inside a Markdown table cell or paragraph: characters that
+/// Markdown would read are escaped, line breaks and other controls become
+/// spaces. An underscore inside a word and a backslash before anything but
+/// punctuation are literal in Markdown and stay as they are, so that names
+/// like `roof_high` read well in the source.
 fn md_escape(s: &str) -> String {
+    let chars: Vec<char> = s.chars().collect();
     let mut out = String::with_capacity(s.len());
-    for c in s.chars() {
+    for (k, &c) in chars.iter().enumerate() {
+        let before = k.checked_sub(1).and_then(|j| chars.get(j));
+        let after = chars.get(k + 1);
+        let escape = match c {
+            '|' | '`' | '*' | '[' | ']' | '<' | '>' | '~' => true,
+            '_' => {
+                !(before.is_some_and(|b| b.is_alphanumeric())
+                    && after.is_some_and(|a| a.is_alphanumeric()))
+            }
+            '\\' => after.is_none_or(|a| a.is_ascii_punctuation()),
+            '#' => k == 0,
+            _ => false,
+        };
         if c.is_control() {
             out.push(' ');
         } else {
-            if matches!(
-                c,
-                '\\' | '`' | '*' | '_' | '[' | ']' | '<' | '>' | '#' | '|' | '~'
-            ) {
+            if escape {
                 out.push('\\');
             }
             out.push(c);
