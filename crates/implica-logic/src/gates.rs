@@ -2,7 +2,7 @@
 //! cost metrics of expressions, two-level covers and networks.
 //!
 //! ```
-//! use implica_logic::{BoolExpr, GateKind, GateNetwork};
+//! use implica_logic::{BoolExpr, Cost, GateKind, GateNetwork};
 //! // Greenhouse vent: open when it is hot and not raining, or on manual.
 //! // hot = 0, raining = 1, manual = 2.
 //! let vent = BoolExpr::Or(vec![
@@ -16,6 +16,11 @@
 //! // and on `manual` (a one-literal term enters the sum complemented).
 //! let cost = net.cost();
 //! assert_eq!((cost.gates, cost.inverters, cost.depth), (4, 2, 3));
+//!
+//! // As written: two terms, three literals, a two-input AND and OR, the
+//! // inverter of `raining`, two levels.
+//! let c = Cost::of_expr(&vent);
+//! assert_eq!((c.terms, c.literals, c.gates2, c.inverters, c.depth), (2, 3, 2, 1, 2));
 //! ```
 //!
 //! Conventions (ours, documented here once):

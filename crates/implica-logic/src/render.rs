@@ -127,72 +127,99 @@ impl std::fmt::Display for RenderError {
 
 impl std::error::Error for RenderError {}
 
-/// Cells of a table; `bars[k]` says whether columns `k` and `k + 1` are
-/// separated by a bar in plain text.
-struct Grid {
-    header: Vec<String>,
-    rows: Vec<Vec<String>>,
+/// Column widths and separators of a table, to write it a line at a time:
+/// `bars[k]` says whether columns `k` and `k + 1` are separated by a bar in
+/// plain text (Markdown has one between all).
+struct Layout {
+    widths: Vec<usize>,
     bars: Vec<bool>,
+    format: Format,
 }
 
-impl Grid {
-    fn text(&self) -> String {
-        let width = |k: usize| {
-            std::iter::once(&self.header)
-                .chain(&self.rows)
-                .map(|r| r.get(k).map_or(0, |c| c.chars().count()))
-                .max()
-                .unwrap_or(0)
-        };
-        let widths: Vec<usize> = (0..self.header.len()).map(width).collect();
-        let line = |cells: &[String], fill: char, bar: &str, gap: &str| {
-            let mut out = String::new();
-            for (k, w) in widths.iter().enumerate() {
-                if k > 0 {
-                    out.push_str(if self.bars[k - 1] { bar } else { gap });
+impl Layout {
+    /// The layout fitting every line of `lines`.
+    fn new(format: Format, bars: Vec<bool>, lines: &[&[String]]) -> Layout {
+        let columns = lines.iter().map(|l| l.len()).max().unwrap_or(0);
+        let widths = (0..columns)
+            .map(|k| {
+                lines
+                    .iter()
+                    .map(|l| l.get(k).map_or(0, |c| c.chars().count()))
+                    .max()
+                    .unwrap_or(0)
+            })
+            .collect();
+        Layout {
+            widths,
+            bars,
+            format,
+        }
+    }
+
+    /// Writes one line of cells (the header or a row).
+    fn line<S: AsRef<str>>(&self, out: &mut String, cells: &[S]) {
+        let cell = |k: usize| cells.get(k).map_or("", |c| c.as_ref());
+        match self.format {
+            Format::Text => self.text_line(out, cell, ' ', " | ", " "),
+            Format::Markdown => {
+                out.push('|');
+                for k in 0..self.widths.len() {
+                    out.push(' ');
+                    out.push_str(&md_escape(cell(k)));
+                    out.push_str(" |");
                 }
-                let cell = cells.get(k).map_or("", String::as_str);
-                out.push_str(cell);
-                let pad = w.saturating_sub(cell.chars().count());
-                out.extend(std::iter::repeat_n(fill, pad));
+                out.push('\n');
             }
-            let mut out = out.trim_end().to_string();
-            out.push('\n');
-            out
-        };
-        let mut out = line(&self.header, ' ', " | ", " ");
-        out.push_str(&line(&[], '-', "-+-", "-"));
-        for r in &self.rows {
-            out.push_str(&line(r, ' ', " | ", " "));
         }
-        out
     }
 
-    fn markdown(&self) -> String {
-        let line = |cells: &mut dyn Iterator<Item = String>| {
-            let mut out = String::from("|");
-            for c in cells {
-                out.push(' ');
-                out.push_str(&c);
-                out.push_str(" |");
+    /// Writes the line under the header.
+    fn rule(&self, out: &mut String) {
+        match self.format {
+            Format::Text => self.text_line(out, |_| "", '-', "-+-", "-"),
+            Format::Markdown => {
+                out.push('|');
+                for _ in &self.widths {
+                    out.push_str(" --- |");
+                }
+                out.push('\n');
             }
-            out.push('\n');
-            out
-        };
-        let mut out = line(&mut self.header.iter().map(|c| md_escape(c)));
-        out.push_str(&line(&mut self.header.iter().map(|_| "---".to_string())));
-        for r in &self.rows {
-            out.push_str(&line(&mut r.iter().map(|c| md_escape(c))));
         }
-        out
     }
 
-    fn render(&self, format: Format) -> String {
-        match format {
-            Format::Text => self.text(),
-            Format::Markdown => self.markdown(),
+    fn text_line<'a>(
+        &self,
+        out: &mut String,
+        cell: impl Fn(usize) -> &'a str,
+        fill: char,
+        bar: &str,
+        gap: &str,
+    ) {
+        let start = out.len();
+        for (k, w) in self.widths.iter().enumerate() {
+            if k > 0 {
+                let barred = self.bars.get(k - 1).copied().unwrap_or(false);
+                out.push_str(if barred { bar } else { gap });
+            }
+            let c = cell(k);
+            out.push_str(c);
+            out.extend(std::iter::repeat_n(
+                fill,
+                w.saturating_sub(c.chars().count()),
+            ));
         }
+        let kept = out[start..].trim_end().len();
+        out.truncate(start + kept);
+        out.push('\n');
     }
+}
+
+/// `s` with line breaks and other control characters as spaces, so that a
+/// name keeps to its line and column.
+fn one_line(s: &str) -> String {
+    s.chars()
+        .map(|c| if c.is_control() { ' ' } else { c })
+        .collect()
 }
 
 /// Text safe inside a Markdown table cell or paragraph: characters that
@@ -286,22 +313,38 @@ pub fn render_truth_table<S: AsRef<str>>(
     let shown = max_rows.map_or(total, |r| r.min(total));
     let header = inputs
         .iter()
-        .map(|s| s.as_ref().to_string())
-        .chain(functions.iter().map(|f| f.name.to_string()))
+        .map(|s| one_line(s.as_ref()))
+        .chain(functions.iter().map(|f| one_line(f.name)))
         .collect::<Vec<_>>();
-    let rows = (0..shown)
-        .map(|m| {
-            (0..n)
-                .map(|i| bits(m >> (n - 1 - i), 1))
-                .chain(functions.iter().map(|f| f.cell(m).to_string()))
-                .collect()
-        })
-        .collect();
     let mut bars = vec![false; header.len().saturating_sub(1)];
     if n > 0 && !functions.is_empty() {
         bars[n - 1] = true;
     }
-    let mut out = Grid { header, rows, bars }.render(format);
+    // Every body cell is one character wide.
+    let ones = vec![String::from("0"); header.len()];
+    let layout = Layout::new(format, bars, &[&header, &ones]);
+    let mut out = String::new();
+    layout.line(&mut out, &header);
+    layout.rule(&mut out);
+    let dc = DONT_CARE.to_string();
+    let symbol = |c: char| match c {
+        '1' => "1",
+        '0' => "0",
+        _ => dc.as_str(),
+    };
+    let mut cells: Vec<&str> = Vec::with_capacity(header.len());
+    for m in 0..shown {
+        cells.clear();
+        cells.extend((0..n).map(|i| {
+            if (m >> (n - 1 - i)) & 1 == 1 {
+                "1"
+            } else {
+                "0"
+            }
+        }));
+        cells.extend(functions.iter().map(|f| symbol(f.cell(m))));
+        layout.line(&mut out, &cells);
+    }
     if shown < total {
         let cut = total - shown;
         let note = if cut == 1 {
@@ -359,7 +402,7 @@ pub fn render_karnaugh_map<S: AsRef<str>>(
             vars: n,
         });
     }
-    let names: Vec<&str> = inputs.iter().map(AsRef::as_ref).collect();
+    let names: Vec<String> = inputs.iter().map(|s| one_line(s.as_ref())).collect();
     let extra = n.saturating_sub(4);
     let k = n - extra;
     let (r, c) = (k / 2, k - k / 2);
@@ -374,7 +417,7 @@ pub fn render_karnaugh_map<S: AsRef<str>>(
         let e = gray(map);
         let mut title = Vec::new();
         if !function.name.is_empty() {
-            title.push(function.name.to_string());
+            title.push(one_line(function.name));
         }
         if extra > 0 {
             title.push(format!("{} = {}", join(0..extra), bits(e, extra)));
@@ -383,14 +426,21 @@ pub fn render_karnaugh_map<S: AsRef<str>>(
             let title = title.join(", ");
             match format {
                 Format::Text => out.push_str(&title),
-                Format::Markdown => out.push_str(&md_escape(&title)),
+                Format::Markdown => {
+                    // A leading `-`, `+` or `=` would start a list or
+                    // underline a heading.
+                    if title.starts_with(['-', '+', '=']) {
+                        out.push('\\');
+                    }
+                    out.push_str(&md_escape(&title));
+                }
             }
             out.push_str("\n\n");
         }
         let header = std::iter::once(corner.clone())
             .chain((0..1usize << c).map(|j| bits(gray(j), c)))
             .collect::<Vec<_>>();
-        let rows = (0..1usize << r)
+        let rows: Vec<Vec<String>> = (0..1usize << r)
             .map(|i| {
                 let gr = gray(i);
                 std::iter::once(bits(gr, r))
@@ -413,7 +463,14 @@ pub fn render_karnaugh_map<S: AsRef<str>>(
             })
             .collect();
         let bars = vec![true; 1usize << c];
-        out.push_str(&Grid { header, rows, bars }.render(format));
+        let mut lines: Vec<&[String]> = vec![&header];
+        lines.extend(rows.iter().map(|r| &r[..]));
+        let layout = Layout::new(format, bars, &lines);
+        layout.line(&mut out, &header);
+        layout.rule(&mut out);
+        for r in &rows {
+            layout.line(&mut out, r);
+        }
         out.push('\n');
     }
     if !terms.is_empty() {

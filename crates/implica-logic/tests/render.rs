@@ -364,6 +364,29 @@ fn truth_table_of_two_functions_cut_to_six_rows() {
 }
 
 #[test]
+fn large_tables_are_cut_with_a_note() {
+    let names: Vec<String> = (0..20).map(|i| format!("i{i}")).collect();
+    let on = TruthTable::var(20, 19);
+    let f = Function {
+        name: "odd",
+        on: &on,
+        dc: None,
+    };
+    let text = render_truth_table(&names, &[f], Format::Text, Some(3)).unwrap();
+    let lines: Vec<&str> = text.lines().collect();
+    assert_eq!(lines.len(), 2 + 3 + 1);
+    // Minterm 2: only the second-to-last input is 1.
+    assert!(lines[4].ends_with(" 1   0   | 0"), "{:?}", lines[4]);
+    assert_eq!(
+        lines[5],
+        "1048573 of 1048576 rows not shown (minterms 3 to 1048575)."
+    );
+    let full = render_truth_table(&names[..12], &[], Format::Markdown, None).unwrap();
+    assert_eq!(full.lines().count(), 2 + 4096);
+    assert_valid_pipe_tables(&full);
+}
+
+#[test]
 fn odd_and_non_ascii_names_stay_aligned() {
     let names = ["température", "λ", "门禁", "x|y"];
     let on = table(4, &[3, 9]);
@@ -391,6 +414,8 @@ fn odd_and_non_ascii_names_stay_aligned() {
     let odd = ["*a*", "_b", "c\nd", "#e"];
     let md = render_truth_table(&odd, &[f], Format::Markdown, Some(0)).unwrap();
     assert!(md.starts_with("| \\*a\\* | \\_b | c d | \\#e | ouvre_porte |\n"));
+    let text = render_truth_table(&odd, &[f], Format::Text, Some(0)).unwrap();
+    assert!(text.starts_with("*a* _b c d #e | ouvre_porte\n"));
 }
 
 #[test]
