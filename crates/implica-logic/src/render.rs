@@ -3,8 +3,8 @@
 //!
 //! ```
 //! use implica_logic::{Format, Function, TruthTable, render_karnaugh_map, render_truth_table};
-//! // Lift door: `open` when the car is level and stopped; unknown while
-//! // the car is neither.
+//! // Lift door: `open` when the car is level and stopped; free when it is
+//! // neither level nor stopped, which the controller never asks about.
 //! let inputs = ["level", "stopped"];
 //! let on = TruthTable::from_minterms(2, &[3]);
 //! let dc = TruthTable::from_minterms(2, &[0]);
