@@ -21,7 +21,9 @@ mod cube;
 mod effort;
 mod expr;
 mod heuristic;
+mod gates;
 mod minimize;
+mod render;
 mod truth_table;
 mod urp;
 
@@ -33,5 +35,9 @@ pub use cube::{Cover, Cube};
 pub use effort::{Effort, Interrupted};
 pub use expr::BoolExpr;
 pub use heuristic::{Heuristic, minimize_heuristic};
+pub use gates::{Cost, Gate, GateError, GateKind, GateNetwork, NetworkCost, Signal};
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
+pub use render::{
+    DONT_CARE, Format, Function, RenderError, render_karnaugh_map, render_truth_table,
+};
 pub use truth_table::{MAX_VARS, TruthTable};
