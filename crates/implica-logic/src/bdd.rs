@@ -355,6 +355,116 @@ impl Bdd {
         Ok(r)
     }
 
+    /// `f` with every variable from `first` on quantified existentially:
+    /// 1 where some value of those variables makes `f` 1.
+    pub fn exists_from(
+        &mut self,
+        f: BddRef,
+        first: usize,
+        effort: &mut Effort,
+    ) -> Result<BddRef, Interrupted> {
+        let mut memo = HashMap::new();
+        self.exists_rec(f.0, first as u32, &mut memo, effort)
+            .map(BddRef)
+    }
+
+    /// `f` with every variable from `first` on quantified universally: 1
+    /// where every value of those variables makes `f` 1.
+    pub fn forall_from(
+        &mut self,
+        f: BddRef,
+        first: usize,
+        effort: &mut Effort,
+    ) -> Result<BddRef, Interrupted> {
+        let nf = self.not(f, effort)?;
+        let e = self.exists_from(nf, first, effort)?;
+        self.not(e, effort)
+    }
+
+    fn exists_rec(
+        &mut self,
+        n: u32,
+        first: u32,
+        memo: &mut HashMap<u32, u32>,
+        effort: &mut Effort,
+    ) -> Result<u32, Interrupted> {
+        if n <= 1 {
+            return Ok(n);
+        }
+        if let Some(&r) = memo.get(&n) {
+            return Ok(r);
+        }
+        effort.spend(1)?;
+        let node = self.nodes[n as usize];
+        let lo = self.exists_rec(node.lo, first, memo, effort)?;
+        let hi = self.exists_rec(node.hi, first, memo, effort)?;
+        let r = if node.var >= first {
+            self.apply(Op::Or, lo, hi, effort)?
+        } else {
+            self.mk(node.var, lo, hi)?
+        };
+        memo.insert(n, r);
+        Ok(r)
+    }
+
+    /// The truth table of `f` over the variables `order` (at most
+    /// [`crate::MAX_VARS`]; `order[0]` becomes the most significant), other
+    /// variables at 0. Exact when `f` depends on no variable outside `order`.
+    pub fn to_truth_table(&self, f: BddRef, order: &[usize]) -> crate::TruthTable {
+        let k = order.len();
+        let mut t = crate::TruthTable::zero(k);
+        let mut point = vec![false; self.vars];
+        for m in 0..1usize << k {
+            for (j, &v) in order.iter().enumerate() {
+                point[v] = (m >> (k - 1 - j)) & 1 == 1;
+            }
+            if self.eval(f, &point) {
+                t.set(m, true);
+            }
+        }
+        t
+    }
+
+    /// A sum of products of `f` over the variables `order` (at most 64;
+    /// variable `order[j]` becomes cube variable `j`), one disjoint cube per
+    /// path to 1; other variables are read as 0, as in
+    /// [`Bdd::to_truth_table`]. Fails when the cover would exceed `max_cubes`.
+    pub fn to_cover_over(
+        &self,
+        f: BddRef,
+        order: &[usize],
+        max_cubes: usize,
+    ) -> Result<Cover, Interrupted> {
+        let k = order.len();
+        assert!(k <= 64, "a cover has at most 64 inputs");
+        let mut local = HashMap::new();
+        for (j, &v) in order.iter().enumerate() {
+            local.insert(v as u32, j);
+        }
+        let mut cubes = Vec::new();
+        let mut stack = vec![(f.0, Cube::universe(k))];
+        while let Some((n, c)) = stack.pop() {
+            if n == 0 {
+                continue;
+            }
+            if n == 1 {
+                if cubes.len() >= max_cubes {
+                    return Err(Interrupted::OutOfBudget);
+                }
+                cubes.push(c);
+                continue;
+            }
+            let node = self.nodes[n as usize];
+            let Some(&j) = local.get(&node.var) else {
+                stack.push((node.lo, c));
+                continue;
+            };
+            stack.push((node.hi, c.and(&Cube::literal(k, j, true))));
+            stack.push((node.lo, c.and(&Cube::literal(k, j, false))));
+        }
+        Ok(Cover { vars: k, cubes })
+    }
+
     /// The variables `f` depends on, ascending. In a reduced diagram these
     /// are exactly the variables of its nodes.
     pub fn support(&self, f: BddRef) -> Vec<usize> {
@@ -396,29 +506,8 @@ impl Bdd {
     /// A sum of products of `f` (disjoint cubes, one per path to 1), over
     /// at most 64 inputs; fails when it would exceed `max_cubes`.
     pub fn to_cover(&self, f: BddRef, max_cubes: usize) -> Result<Cover, Interrupted> {
-        assert!(self.vars <= 64, "a cover has at most 64 inputs");
-        let mut cubes = Vec::new();
-        let mut stack = vec![(f.0, Cube::universe(self.vars))];
-        while let Some((n, c)) = stack.pop() {
-            if n == 0 {
-                continue;
-            }
-            if n == 1 {
-                if cubes.len() >= max_cubes {
-                    return Err(Interrupted::OutOfBudget);
-                }
-                cubes.push(c);
-                continue;
-            }
-            let node = self.nodes[n as usize];
-            let i = node.var as usize;
-            stack.push((node.hi, c.and(&Cube::literal(self.vars, i, true))));
-            stack.push((node.lo, c.and(&Cube::literal(self.vars, i, false))));
-        }
-        Ok(Cover {
-            vars: self.vars,
-            cubes,
-        })
+        let order: Vec<usize> = (0..self.vars).collect();
+        self.to_cover_over(f, &order, max_cubes)
     }
 
     /// Nodes reachable from `f`, terminals excluded: the size of its diagram.

@@ -20,8 +20,8 @@ mod bdd;
 mod cube;
 mod effort;
 mod expr;
-mod heuristic;
 mod gates;
+mod heuristic;
 mod minimize;
 mod render;
 mod truth_table;
@@ -34,8 +34,8 @@ pub use bdd::{Bdd, BddRef, DEFAULT_MAX_NODES};
 pub use cube::{Cover, Cube};
 pub use effort::{Effort, Interrupted};
 pub use expr::BoolExpr;
-pub use heuristic::{Heuristic, minimize_heuristic};
 pub use gates::{Cost, Gate, GateError, GateKind, GateNetwork, NetworkCost, Signal};
+pub use heuristic::{Heuristic, minimize_heuristic};
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
 pub use render::{
     DONT_CARE, Format, Function, RenderError, render_karnaugh_map, render_truth_table,

@@ -2,7 +2,7 @@
 //! by minterm for small functions, and against the cube-based operations
 //! (an independent method) for functions of 40 to 64 inputs.
 
-use implica_logic::{Bdd, BddRef, BoolExpr, Cover, Cube, Effort, Interrupted};
+use implica_logic::{Bdd, BddRef, BoolExpr, Cover, Cube, Effort, Interrupted, TruthTable};
 use proptest::prelude::*;
 
 fn expr(vars: usize) -> impl Strategy<Value = BoolExpr> {
@@ -60,6 +60,27 @@ proptest! {
                     prop_assert_eq!(b.eval(r, &inputs(n, m)), tr.get(m));
                 }
             }
+        }
+        // Quantifying the last three variables, against the cofactors.
+        let (mut some, mut every) = (TruthTable::zero(n), TruthTable::one(n));
+        for k in 0..8usize {
+            let c = (0..3).fold(t.clone(), |acc, j| acc.cofactor(6 + j, k >> j & 1 == 1));
+            some = some.or(&c);
+            every = every.and(&c);
+        }
+        let ex = b.exists_from(f, 6, &mut big()).unwrap();
+        let all = b.forall_from(f, 6, &mut big()).unwrap();
+        prop_assert_eq!(b.to_truth_table(ex, &(0..n).collect::<Vec<_>>()), some.clone());
+        prop_assert_eq!(b.to_truth_table(all, &(0..n).collect::<Vec<_>>()), every);
+        // Over a reordered subset of the variables: the first six, reversed.
+        let order: Vec<usize> = (0..6).rev().collect();
+        let sub = b.to_truth_table(ex, &order);
+        let cover = b.to_cover_over(ex, &order, 1 << n).unwrap();
+        prop_assert_eq!(cover.truth_table(), sub.clone());
+        for m in 0..64usize {
+            // Local minterm m sets x5 as its most significant bit.
+            let global = (0..6).fold(0usize, |acc, j| acc | ((m >> j) & 1) << (n - 1 - j));
+            prop_assert_eq!(sub.get(m), some.get(global));
         }
         // Canonical form: the same function is the same node.
         let tg = g.truth_table(n);
