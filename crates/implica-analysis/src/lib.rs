@@ -11,6 +11,8 @@
 //! this crate returns; every rule lives here, one file per rule under
 //! `rules/`, with its documentation as the file's doc comment.
 
+pub mod functions;
+pub mod model;
 pub mod rules;
 
 use implica_syntax::{Span, SyntaxError};

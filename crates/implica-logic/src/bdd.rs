@@ -364,7 +364,8 @@ impl Bdd {
         effort: &mut Effort,
     ) -> Result<BddRef, Interrupted> {
         let mut memo = HashMap::new();
-        self.exists_rec(f.0, first as u32, &mut memo, effort)
+        let first = first as u32;
+        self.exists_rec(f.0, &|v| v >= first, &mut memo, effort)
             .map(BddRef)
     }
 
@@ -381,10 +382,36 @@ impl Bdd {
         self.not(e, effort)
     }
 
+    /// `f` with the variables `v` where `quantified[v]` quantified
+    /// existentially (variables past the slice are kept).
+    pub fn exists(
+        &mut self,
+        f: BddRef,
+        quantified: &[bool],
+        effort: &mut Effort,
+    ) -> Result<BddRef, Interrupted> {
+        let mut memo = HashMap::new();
+        let q = |v: u32| quantified.get(v as usize).copied().unwrap_or(false);
+        self.exists_rec(f.0, &q, &mut memo, effort).map(BddRef)
+    }
+
+    /// `f` with the variables `v` where `quantified[v]` quantified
+    /// universally.
+    pub fn forall(
+        &mut self,
+        f: BddRef,
+        quantified: &[bool],
+        effort: &mut Effort,
+    ) -> Result<BddRef, Interrupted> {
+        let nf = self.not(f, effort)?;
+        let e = self.exists(nf, quantified, effort)?;
+        self.not(e, effort)
+    }
+
     fn exists_rec(
         &mut self,
         n: u32,
-        first: u32,
+        quantified: &dyn Fn(u32) -> bool,
         memo: &mut HashMap<u32, u32>,
         effort: &mut Effort,
     ) -> Result<u32, Interrupted> {
@@ -396,9 +423,9 @@ impl Bdd {
         }
         effort.spend(1)?;
         let node = self.nodes[n as usize];
-        let lo = self.exists_rec(node.lo, first, memo, effort)?;
-        let hi = self.exists_rec(node.hi, first, memo, effort)?;
-        let r = if node.var >= first {
+        let lo = self.exists_rec(node.lo, quantified, memo, effort)?;
+        let hi = self.exists_rec(node.hi, quantified, memo, effort)?;
+        let r = if quantified(node.var) {
             self.apply(Op::Or, lo, hi, effort)?
         } else {
             self.mk(node.var, lo, hi)?

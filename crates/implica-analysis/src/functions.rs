@@ -1,0 +1,434 @@
+//! Each signal's Boolean function over the primary inputs, with
+//! intermediate signals composed in, as BDDs.
+//!
+//! Don't-cares belong to the signal that states them (a `dc(...)` list, a
+//! `-` in a table's output column, a table row that is missing or in
+//! conflict). Such a signal may be built as 0 or 1 there, and a signal that
+//! reads it sees whichever value was built. So each signal with freedom
+//! gets a *choice variable* (numbered after the primary inputs): its value
+//! is `on | free & choice`. A reader's value then depends on those choices;
+//! it is 1 for sure where it is 1 for every choice (`lower`), may be 1 where
+//! it is 1 for some choice (`upper`), and free in between. Quantifying only
+//! at the end keeps the choices shared: `w ^ w` is 0 even when `w` is free.
+//!
+//! The input combinations of `never` statements (those that are impossible
+//! for every choice) are don't-cares of every signal.
+
+use crate::model::{Body, Model, SignalId};
+use implica_logic::{Bdd, BddRef, Effort, Interrupted};
+use implica_syntax::ast::{BinOp, CellValue, Expr, ExprKind, RowKind, TermEntry, TermKind};
+
+/// Why a signal has no known function.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Unknown {
+    /// It reads this signal, which is neither an input nor defined.
+    Undefined(SignalId),
+    /// It is on a cycle of definitions, or reads a signal that is.
+    Cyclic,
+    /// Its definition (or one it reads) has a syntax error or does not fit
+    /// together (a table row of the wrong width).
+    Malformed,
+    /// Its function needs more work or memory than the budget allows.
+    TooLarge,
+}
+
+/// A signal's function.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Known {
+    /// Over the primary inputs and the choice variables.
+    pub full: BddRef,
+    /// Where it is 1 whatever the choices (over the primary inputs).
+    pub lower: BddRef,
+    /// Where it is 1 for some choice (over the primary inputs).
+    pub upper: BddRef,
+}
+
+/// A signal's function, or why there is none.
+pub type Value = Result<Known, Unknown>;
+
+/// The function of one signal over the inputs it reads, ready for the
+/// logic engine: it is 1 on `on`, free on `dc`, 0 elsewhere, and depends on
+/// no input outside `inputs`.
+#[derive(Debug, Clone)]
+pub struct Local {
+    /// Indices of the primary inputs the signal reads, directly or through
+    /// other signals, in declaration order.
+    pub inputs: Vec<usize>,
+    pub on: BddRef,
+    pub dc: BddRef,
+}
+
+/// The functions of all signals of one document.
+pub struct Functions {
+    pub bdd: Bdd,
+    /// Number of primary inputs (BDD variables `0..inputs`).
+    pub inputs: usize,
+    values: Vec<Value>,
+    /// Primary inputs each signal reads, by input index, ascending.
+    reads: Vec<Vec<usize>>,
+    /// Where some `never` statement holds, for every choice.
+    pub impossible: BddRef,
+    next_choice: usize,
+}
+
+enum Fail {
+    Unknown(Unknown),
+    Stop(Interrupted),
+}
+
+impl From<Interrupted> for Fail {
+    fn from(i: Interrupted) -> Fail {
+        Fail::Stop(i)
+    }
+}
+
+impl From<Unknown> for Fail {
+    fn from(u: Unknown) -> Fail {
+        Fail::Unknown(u)
+    }
+}
+
+/// Work allowed per definition (and per `never` statement) by default.
+pub const DEFAULT_WORK_PER_DEFINITION: u64 = 2_000_000;
+
+impl Functions {
+    /// Computes every signal's function. Each definition gets
+    /// `work_per_definition` units; past them that signal (and those that
+    /// read it) is [`Unknown::TooLarge`]. Only cancellation stops the whole.
+    pub fn compute(
+        model: &Model,
+        work_per_definition: u64,
+        cancel: Option<&dyn Fn() -> bool>,
+    ) -> Result<Functions, Interrupted> {
+        let inputs = model.inputs.len();
+        let vars = inputs + model.signals.len();
+        let mut f = Functions {
+            bdd: Bdd::new(vars),
+            inputs,
+            values: vec![Err(Unknown::Cyclic); model.signals.len()],
+            reads: vec![Vec::new(); model.signals.len()],
+            impossible: BddRef::FALSE,
+            next_choice: inputs,
+        };
+        let effort = || {
+            let e = Effort::new(work_per_definition);
+            match cancel {
+                Some(c) => e.with_cancel(c),
+                None => e,
+            }
+        };
+        for &s in &model.order {
+            let mut e = effort();
+            let value = match f.signal_value(model, s, &mut e) {
+                Ok(k) => Ok(k),
+                Err(Fail::Unknown(u)) => Err(u),
+                Err(Fail::Stop(Interrupted::OutOfBudget)) => Err(Unknown::TooLarge),
+                Err(Fail::Stop(Interrupted::Cancelled)) => return Err(Interrupted::Cancelled),
+            };
+            f.values[s] = value;
+            f.reads[s] = match model.signals[s].input_index {
+                Some(i) => vec![i],
+                None => {
+                    let mut r: Vec<usize> = model
+                        .definition_of(s)
+                        .map(|d| d.reads.iter().flat_map(|&x| f.reads[x].clone()).collect())
+                        .unwrap_or_default();
+                    r.sort_unstable();
+                    r.dedup();
+                    r
+                }
+            };
+        }
+        for st in &model.never {
+            let mut e = effort();
+            let sure = (|| -> Result<BddRef, Fail> {
+                let v = f.expr(model, st.body, &mut e)?;
+                Ok(f.bdd.forall_from(v, inputs, &mut e)?)
+            })();
+            match sure {
+                Ok(v) => {
+                    let mut e = effort();
+                    match f.bdd.or(f.impossible, v, &mut e) {
+                        Ok(i) => f.impossible = i,
+                        Err(Interrupted::Cancelled) => return Err(Interrupted::Cancelled),
+                        Err(Interrupted::OutOfBudget) => {}
+                    }
+                }
+                Err(Fail::Stop(Interrupted::Cancelled)) => return Err(Interrupted::Cancelled),
+                // A constraint that cannot be computed frees nothing.
+                Err(_) => {}
+            }
+        }
+        Ok(f)
+    }
+
+    /// The function of a signal.
+    pub fn value(&self, s: SignalId) -> Value {
+        self.values[s]
+    }
+
+    /// The primary inputs (by index) a signal reads, directly or not.
+    pub fn reads(&self, s: SignalId) -> &[usize] {
+        &self.reads[s]
+    }
+
+    /// The function of a signal over the inputs it reads, with its own and
+    /// its readers' freedom and the impossible combinations as don't-cares.
+    /// An impossible combination counts only where it is impossible for
+    /// every value of the inputs the signal does not read.
+    pub fn local(
+        &mut self,
+        s: SignalId,
+        effort: &mut Effort,
+    ) -> Result<Result<Local, Unknown>, Interrupted> {
+        let k = match self.values[s] {
+            Ok(k) => k,
+            Err(u) => return Ok(Err(u)),
+        };
+        let inputs = self.reads[s].clone();
+        let mut others = vec![true; self.inputs];
+        for &i in &inputs {
+            others[i] = false;
+        }
+        let impossible = self.bdd.forall(self.impossible, &others, effort)?;
+        let free = self.bdd.xor(k.upper, k.lower, effort)?;
+        let dc = self.bdd.or(free, impossible, effort)?;
+        let not_dc = self.bdd.not(dc, effort)?;
+        let on = self.bdd.and(k.lower, not_dc, effort)?;
+        Ok(Ok(Local { inputs, on, dc }))
+    }
+
+    fn signal_value(&mut self, model: &Model, s: SignalId, e: &mut Effort) -> Result<Known, Fail> {
+        if let Some(i) = model.signals[s].input_index {
+            let v = self.bdd.var(i)?;
+            return Ok(Known {
+                full: v,
+                lower: v,
+                upper: v,
+            });
+        }
+        let Some(def) = model.definition_of(s) else {
+            return Err(Unknown::Undefined(s).into());
+        };
+        let (on, free) = match def.body {
+            Body::Expr(x) => (self.expr(model, x, e)?, BddRef::FALSE),
+            Body::Terms(t) => {
+                let over = self.names(model, t.over.iter().map(|n| n.text.as_str()))?;
+                let list = |kind| t.parts.iter().find(|p| p.kind == kind);
+                let dc = match list(TermKind::Dc) {
+                    Some(p) => self.rows(&over, &p.entries, e)?,
+                    None => BddRef::FALSE,
+                };
+                let listed_on = match (list(TermKind::On), list(TermKind::Off)) {
+                    (Some(p), None) => self.rows(&over, &p.entries, e)?,
+                    (None, Some(p)) => {
+                        let off = self.rows(&over, &p.entries, e)?;
+                        self.bdd.not(off, e)?
+                    }
+                    _ => return Err(Unknown::Malformed.into()),
+                };
+                // A row listed both as a value and as a don't-care is free.
+                let not_dc = self.bdd.not(dc, e)?;
+                (self.bdd.and(listed_on, not_dc, e)?, dc)
+            }
+            Body::Column { table, column } => {
+                let ins = self.names(model, table.inputs.iter().map(|n| n.text.as_str()))?;
+                let width = table.outputs.len();
+                let (mut ones, mut zeros, mut listed) =
+                    (BddRef::FALSE, BddRef::FALSE, BddRef::FALSE);
+                let mut unlisted = None;
+                for row in &table.rows {
+                    match &row.kind {
+                        RowKind::Cells { inputs, outputs } => {
+                            if inputs.len() != ins.len() || outputs.len() != width {
+                                return Err(Unknown::Malformed.into());
+                            }
+                            let mut pattern = BddRef::TRUE;
+                            for (cell, &v) in inputs.iter().zip(&ins) {
+                                let lit = match cell.value {
+                                    CellValue::One => v,
+                                    CellValue::Zero => self.bdd.not(v, e)?,
+                                    CellValue::Dash => continue,
+                                };
+                                pattern = self.bdd.and(pattern, lit, e)?;
+                            }
+                            listed = self.bdd.or(listed, pattern, e)?;
+                            match outputs[column].value {
+                                CellValue::One => ones = self.bdd.or(ones, pattern, e)?,
+                                CellValue::Zero => zeros = self.bdd.or(zeros, pattern, e)?,
+                                CellValue::Dash => {}
+                            }
+                        }
+                        RowKind::Unlisted { outputs } => {
+                            if outputs.len() != width {
+                                return Err(Unknown::Malformed.into());
+                            }
+                            unlisted = Some(outputs[column].value);
+                        }
+                        RowKind::Error => return Err(Unknown::Malformed.into()),
+                    }
+                }
+                if let Some(value) = unlisted {
+                    let rest = self.bdd.not(listed, e)?;
+                    match value {
+                        CellValue::One => ones = self.bdd.or(ones, rest, e)?,
+                        CellValue::Zero => zeros = self.bdd.or(zeros, rest, e)?,
+                        CellValue::Dash => {}
+                    }
+                }
+                // Rows in conflict, rows with `-` and missing rows are free.
+                let (not_ones, not_zeros) = (self.bdd.not(ones, e)?, self.bdd.not(zeros, e)?);
+                let on = self.bdd.and(ones, not_zeros, e)?;
+                let off = self.bdd.and(zeros, not_ones, e)?;
+                let fixed = self.bdd.or(on, off, e)?;
+                (on, self.bdd.not(fixed, e)?)
+            }
+        };
+        let full = if free == BddRef::FALSE {
+            on
+        } else {
+            let choice = self.bdd.var(self.next_choice)?;
+            self.next_choice += 1;
+            let chosen = self.bdd.and(free, choice, e)?;
+            self.bdd.or(on, chosen, e)?
+        };
+        let lower = self.bdd.forall_from(full, self.inputs, e)?;
+        let upper = self.bdd.exists_from(full, self.inputs, e)?;
+        Ok(Known { full, lower, upper })
+    }
+
+    fn name(&self, model: &Model, name: &str) -> Result<BddRef, Fail> {
+        let Some(s) = model.signal(name) else {
+            return Err(Unknown::Malformed.into());
+        };
+        match self.values[s] {
+            Ok(k) => Ok(k.full),
+            Err(u) => Err(u.into()),
+        }
+    }
+
+    fn names<'n>(
+        &self,
+        model: &Model,
+        names: impl Iterator<Item = &'n str>,
+    ) -> Result<Vec<BddRef>, Fail> {
+        names.map(|n| self.name(model, n)).collect()
+    }
+
+    /// The rows listed by term-list entries, as a function of the `over`
+    /// signals (the first one the most significant bit). A range becomes
+    /// at most two blocks per bit, never one function per row.
+    fn rows(
+        &mut self,
+        over: &[BddRef],
+        entries: &[TermEntry],
+        e: &mut Effort,
+    ) -> Result<BddRef, Fail> {
+        let k = over.len();
+        if k > 64 {
+            return Err(Unknown::Malformed.into());
+        }
+        let last = if k == 64 { u64::MAX } else { (1u64 << k) - 1 };
+        let mut acc = BddRef::FALSE;
+        for entry in entries {
+            let (lo, hi) = match entry {
+                TermEntry::Single(n) => (n.value, n.value),
+                TermEntry::Range(a, b) => (a.value, b.value),
+            };
+            let (Some(lo), Some(hi)) = (lo, hi) else {
+                return Err(Unknown::Malformed.into());
+            };
+            if lo > hi || hi > last {
+                return Err(Unknown::Malformed.into());
+            }
+            let (mut lo, hi) = (u128::from(lo), u128::from(hi));
+            while lo <= hi {
+                // The largest aligned block starting at `lo` inside the range.
+                let mut b = if lo == 0 {
+                    k
+                } else {
+                    (lo.trailing_zeros() as usize).min(k)
+                };
+                while lo + (1u128 << b) - 1 > hi {
+                    b -= 1;
+                }
+                let block = self.block(over, lo as u64, b, e)?;
+                acc = self.bdd.or(acc, block, e)?;
+                lo += 1u128 << b;
+            }
+        }
+        Ok(acc)
+    }
+
+    /// The rows whose high `k - free` bits equal those of `prefix`.
+    fn block(
+        &mut self,
+        over: &[BddRef],
+        prefix: u64,
+        free: usize,
+        e: &mut Effort,
+    ) -> Result<BddRef, Fail> {
+        let k = over.len();
+        let mut acc = BddRef::TRUE;
+        for (j, &v) in over.iter().enumerate().take(k - free) {
+            let bit = (prefix >> (k - 1 - j)) & 1 == 1;
+            let lit = if bit { v } else { self.bdd.not(v, e)? };
+            acc = self.bdd.and(acc, lit, e)?;
+        }
+        Ok(acc)
+    }
+
+    fn expr(&mut self, model: &Model, x: &Expr, e: &mut Effort) -> Result<BddRef, Fail> {
+        match &x.kind {
+            ExprKind::Name(n) => self.name(model, &n.text),
+            ExprKind::Const(b) => Ok(if *b { BddRef::TRUE } else { BddRef::FALSE }),
+            ExprKind::Not { operand, .. } => {
+                let v = self.expr(model, operand, e)?;
+                Ok(self.bdd.not(v, e)?)
+            }
+            ExprKind::Paren(inner) => self.expr(model, inner, e),
+            ExprKind::Error => Err(Unknown::Malformed.into()),
+            ExprKind::Chain { operands, ops } => {
+                let vals = operands
+                    .iter()
+                    .map(|o| self.expr(model, o, e))
+                    .collect::<Result<Vec<_>, _>>()?;
+                if vals.len() != ops.len() + 1 {
+                    return Err(Unknown::Malformed.into());
+                }
+                if ops.iter().all(|o| o.op == BinOp::Implies) {
+                    // `a => b => c` is `a => (b => c)`.
+                    let mut acc = vals[vals.len() - 1];
+                    for &v in vals[..vals.len() - 1].iter().rev() {
+                        let nv = self.bdd.not(v, e)?;
+                        acc = self.bdd.or(nv, acc, e)?;
+                    }
+                    return Ok(acc);
+                }
+                let mut acc = vals[0];
+                for (op, &v) in ops.iter().zip(&vals[1..]) {
+                    acc = match op.op {
+                        BinOp::And => self.bdd.and(acc, v, e)?,
+                        BinOp::Or => self.bdd.or(acc, v, e)?,
+                        BinOp::Xor | BinOp::Ne => self.bdd.xor(acc, v, e)?,
+                        BinOp::Nand => {
+                            let a = self.bdd.and(acc, v, e)?;
+                            self.bdd.not(a, e)?
+                        }
+                        BinOp::Nor => {
+                            let a = self.bdd.or(acc, v, e)?;
+                            self.bdd.not(a, e)?
+                        }
+                        BinOp::Xnor | BinOp::Eq => {
+                            let a = self.bdd.xor(acc, v, e)?;
+                            self.bdd.not(a, e)?
+                        }
+                        // A chain mixes `=>` only with itself (one level).
+                        BinOp::Implies => return Err(Unknown::Malformed.into()),
+                    };
+                }
+                Ok(acc)
+            }
+        }
+    }
+}
