@@ -1,9 +1,12 @@
-//! The `implica` command: check, format and (in later releases) minimize and
-//! export combinational logic written in Implica.
+//! The `implica` command: check, format, minimize and tabulate (and in later
+//! releases export) combinational logic written in Implica.
 
 mod check;
+mod document;
 mod files;
 mod fmt;
+mod minimize;
+mod table;
 
 use clap::{Parser, Subcommand, ValueEnum};
 
@@ -50,6 +53,46 @@ enum Command {
         #[arg(long)]
         check: bool,
     },
+    /// Print each signal's minimal sum of products and product of sums, with cost and
+    /// certificate.
+    ///
+    /// Each signal is minimized over the inputs it reads, with its don't-cares and the
+    /// `never` combinations free. Up to 16 inputs the result is exact (and says whether it is
+    /// proven minimal, or how many terms are at least needed); past that, or past the exact
+    /// budget, a heuristic finds a smaller equivalent form. Exit status: 0 when every signal
+    /// was minimized, 1 when some signal has no function (see the message), 2 when the file
+    /// cannot be read or a --signal is unknown.
+    Minimize {
+        /// The file (`-` reads standard input).
+        file: PathBuf,
+        /// Only this signal (repeat for several).
+        #[arg(long = "signal", value_name = "NAME")]
+        signals: Vec<String>,
+        /// Which forms to print.
+        #[arg(long, value_enum, default_value_t = minimize::Form2::Both)]
+        form: minimize::Form2,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = minimize::MinimizeFormat::Text)]
+        format: minimize::MinimizeFormat,
+    },
+    /// Print truth tables of signals (text mode adds Karnaugh maps for up to 6 inputs).
+    ///
+    /// Each signal's table is over the inputs it reads, the first one the most significant
+    /// bit of the row number; `-` marks a don't-care. `--format csv` prints one table over all
+    /// the inputs the selected signals read (at most 20). Exit status as for `minimize`.
+    Table {
+        /// The file (`-` reads standard input).
+        file: PathBuf,
+        /// Only this signal (repeat for several).
+        #[arg(long = "signal", value_name = "NAME")]
+        signals: Vec<String>,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = table::TableFormat::Text)]
+        format: table::TableFormat,
+        /// In text mode, print at most this many rows of each table.
+        #[arg(long, value_name = "N", default_value_t = 1024)]
+        max_rows: usize,
+    },
     /// Print the syntax tree of a file (for contributors).
     #[command(hide = true)]
     SyntaxTree {
@@ -74,6 +117,18 @@ fn main() -> ExitCode {
     match cli.command {
         Command::Check { paths, format } => check::run(&paths, format),
         Command::Fmt { paths, check } => fmt::run(&paths, check),
+        Command::Minimize {
+            file,
+            signals,
+            form,
+            format,
+        } => minimize::run(&file, &signals, form, format),
+        Command::Table {
+            file,
+            signals,
+            format,
+            max_rows,
+        } => table::run(&file, &signals, format, max_rows),
         Command::SyntaxTree { path, spans } => match files::read_input(&path) {
             Ok(bytes) => {
                 let (text, error) = implica_syntax::decode(&bytes);

@@ -1,0 +1,202 @@
+//! Minimal two-level forms of a signal: the sum of products and the product
+//! of sums, exact within the budget and heuristic beyond it, each checked
+//! against the signal's function before it is returned.
+
+use crate::functions::{Functions, Local, Unknown};
+use crate::model::SignalId;
+use implica_logic::{
+    BoolExpr, Budget, Cover, Effort, Interrupted, Minimized, TruthTable, minimize_heuristic,
+    minimize_pos, minimize_sop,
+};
+
+/// How a form was found.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Method {
+    /// Prime implicants and a minimum cover.
+    Exact,
+    /// The expand, irredundant, reduce loop (for functions past the exact
+    /// budget).
+    Heuristic,
+}
+
+impl Method {
+    /// The lower-case name used in output formats.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Method::Exact => "exact",
+            Method::Heuristic => "heuristic",
+        }
+    }
+}
+
+/// A two-level form over the signal's inputs (variable `i` is
+/// `Local::inputs[i]`).
+#[derive(Debug, Clone)]
+pub struct Form {
+    /// For a sum of products, its terms; for a product of sums, the terms of
+    /// the complement whose negated literals make up each sum.
+    pub cover: Cover,
+    pub expression: BoolExpr,
+    /// Product terms (sum of products) or sum terms (product of sums).
+    pub terms: usize,
+    pub literals: usize,
+    pub proven_minimal: bool,
+    /// Fewest terms any such form needs, as proven.
+    pub lower_bound: usize,
+    pub method: Method,
+}
+
+/// Why no form was found.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct NoForm {
+    pub reason: String,
+}
+
+/// The minimal forms of one signal.
+#[derive(Debug, Clone)]
+pub struct SignalForms {
+    pub local: Local,
+    pub sop: Option<Result<Form, NoForm>>,
+    pub pos: Option<Result<Form, NoForm>>,
+}
+
+/// Inputs beyond which no cover is built (the cube width).
+const MAX_COVER_INPUTS: usize = 64;
+/// Cubes a BDD may turn into before the heuristic starts.
+const MAX_START_CUBES: usize = 200_000;
+
+/// The requested minimal forms of signal `s`. `effort` bounds the
+/// heuristic and the conversions; `budget` the exact minimization.
+pub fn minimal_forms(
+    f: &mut Functions,
+    s: SignalId,
+    sop: bool,
+    pos: bool,
+    budget: &Budget,
+    effort: &mut Effort,
+) -> Result<Result<SignalForms, Unknown>, Interrupted> {
+    let local = match f.local(s, effort)? {
+        Ok(l) => l,
+        Err(u) => return Ok(Err(u)),
+    };
+    let mut forms = SignalForms {
+        local,
+        sop: None,
+        pos: None,
+    };
+    if sop {
+        forms.sop = Some(form(f, &forms.local, false, budget, effort)?);
+    }
+    if pos {
+        forms.pos = Some(form(f, &forms.local, true, budget, effort)?);
+    }
+    Ok(Ok(forms))
+}
+
+fn form(
+    f: &mut Functions,
+    local: &Local,
+    product_of_sums: bool,
+    budget: &Budget,
+    effort: &mut Effort,
+) -> Result<Result<Form, NoForm>, Interrupted> {
+    let k = local.inputs.len();
+    if k <= budget.max_vars.min(implica_logic::MAX_VARS) {
+        let on = f.bdd.to_truth_table(local.on, &local.inputs);
+        let dc = f.bdd.to_truth_table(local.dc, &local.inputs);
+        let found = if product_of_sums {
+            minimize_pos(&on, &dc, budget)
+        } else {
+            minimize_sop(&on, &dc, budget)
+        };
+        if let Ok(m) = found {
+            return Ok(check_exact(m, &on, &dc, product_of_sums));
+        }
+    }
+    if k > MAX_COVER_INPUTS {
+        return Ok(Err(NoForm {
+            reason: format!(
+                "it reads {k} inputs; two-level forms are found for at most {MAX_COVER_INPUTS}"
+            ),
+        }));
+    }
+    // Past the exact limit: start the heuristic from the BDD's paths.
+    let target = if product_of_sums {
+        let care = f.bdd.or(local.on, local.dc, effort)?;
+        f.bdd.not(care, effort)?
+    } else {
+        local.on
+    };
+    let start = f.bdd.to_cover_over(target, &local.inputs, MAX_START_CUBES);
+    let dc = f
+        .bdd
+        .to_cover_over(local.dc, &local.inputs, MAX_START_CUBES);
+    let (Ok(start), Ok(dc)) = (start, dc) else {
+        return Ok(Err(NoForm {
+            reason: format!("its function has more than {MAX_START_CUBES} disjoint terms"),
+        }));
+    };
+    let h = minimize_heuristic(&start, &dc, effort)?;
+    let mut cover = h.cover;
+    sort_terms(&mut cover);
+    Ok(Ok(Form {
+        expression: expression(&cover, product_of_sums),
+        terms: cover.len(),
+        literals: cover.literals(),
+        proven_minimal: false,
+        lower_bound: usize::from(!cover.is_empty()),
+        method: Method::Heuristic,
+        cover,
+    }))
+}
+
+/// Terms in reading order: by their literals, the first input first, a
+/// positive literal before a negative one before none.
+fn sort_terms(cover: &mut Cover) {
+    let vars = cover.vars;
+    cover.cubes.sort_by_cached_key(|c| {
+        (0..vars)
+            .map(|i| match c.literal_of(i) {
+                Some(true) => 0u8,
+                Some(false) => 1,
+                None => 2,
+            })
+            .collect::<Vec<u8>>()
+    });
+}
+
+fn expression(cover: &Cover, product_of_sums: bool) -> BoolExpr {
+    if product_of_sums {
+        BoolExpr::from_complement_cover(cover)
+    } else {
+        BoolExpr::from_cover(cover)
+    }
+}
+
+/// The exact result, after a check by truth table that the expression
+/// computes the function where it is specified.
+fn check_exact(
+    mut m: Minimized,
+    on: &TruthTable,
+    dc: &TruthTable,
+    product_of_sums: bool,
+) -> Result<Form, NoForm> {
+    sort_terms(&mut m.cover);
+    let e = expression(&m.cover, product_of_sums);
+    let t = e.truth_table(on.vars());
+    if !t.and_not(dc).eq(&on.and_not(dc)) {
+        return Err(NoForm {
+            reason: "internal error: the minimized form did not check out; please report this"
+                .to_string(),
+        });
+    }
+    Ok(Form {
+        expression: e,
+        terms: m.cover.len(),
+        literals: m.cover.literals(),
+        proven_minimal: m.proven_minimal,
+        lower_bound: m.lower_bound,
+        method: Method::Exact,
+        cover: m.cover,
+    })
+}

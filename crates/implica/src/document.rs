@@ -1,0 +1,102 @@
+//! Loading one document for the commands that compute with its signals
+//! (`minimize`, `table`), and choosing the signals they report on.
+
+use crate::files;
+use implica_analysis::functions::{Functions, Unknown};
+use implica_analysis::model::{Model, SignalId, SignalKind};
+use implica_syntax::ast::SourceFile;
+use std::path::Path;
+
+/// A parsed document.
+pub struct Document {
+    pub name: String,
+    pub file: SourceFile,
+}
+
+/// Reads and parses `path` (`-` is standard input). Syntax errors are
+/// summarized on standard error; the signals they do not touch still work.
+pub fn load(path: &Path) -> Result<Document, String> {
+    let name = if path.as_os_str() == "-" {
+        "<stdin>".to_string()
+    } else {
+        path.display().to_string()
+    };
+    let bytes = files::read_input(path).map_err(|e| format!("{name}: cannot read: {e}"))?;
+    let (text, encoding) = implica_syntax::decode(&bytes);
+    let (file, errors) = implica_syntax::parse(&text);
+    let count = errors.len() + usize::from(encoding.is_some());
+    if count > 0 {
+        eprintln!(
+            "implica: {name}: {count} syntax error{}; signals whose definitions they touch are \
+             skipped (run `implica check {name}` for details)",
+            if count == 1 { "" } else { "s" }
+        );
+    }
+    Ok(Document { name, file })
+}
+
+/// The signals to report on: those named by `--signal`, in the order given,
+/// or else every defined signal that is not an input, in definition order.
+pub fn select(model: &Model, doc: &Document, names: &[String]) -> Result<Vec<SignalId>, String> {
+    if names.is_empty() {
+        let mut out: Vec<SignalId> = Vec::new();
+        for d in &model.definitions {
+            let s = d.signal;
+            if model.signals[s].kind != SignalKind::Input && !out.contains(&s) {
+                out.push(s);
+            }
+        }
+        return Ok(out);
+    }
+    names
+        .iter()
+        .map(|n| match model.signal(n) {
+            None => Err(format!("{}: no signal named `{n}`", doc.name)),
+            Some(s) if model.signals[s].kind == SignalKind::Input => Err(format!(
+                "{}: `{n}` is an input; name a defined signal",
+                doc.name
+            )),
+            Some(s) if model.signals[s].definitions.is_empty() => {
+                Err(format!("{}: `{n}` is never defined", doc.name))
+            }
+            Some(s) => Ok(s),
+        })
+        .collect()
+}
+
+/// Computes every signal's function, with the default work per definition.
+pub fn functions(model: &Model) -> Functions {
+    Functions::compute(
+        model,
+        implica_analysis::functions::DEFAULT_WORK_PER_DEFINITION,
+        None,
+    )
+    .unwrap_or_else(|_| unreachable!("nothing cancels a command-line run"))
+}
+
+/// Why a signal has no function, in words.
+pub fn explain(model: &Model, u: Unknown) -> String {
+    match u {
+        Unknown::Undefined(x) => format!(
+            "it reads `{}`, which is neither an input nor defined",
+            model.signals[x].name
+        ),
+        Unknown::Cyclic => {
+            "it depends on itself through a cycle of definitions (see `implica check`)".to_string()
+        }
+        Unknown::Malformed => {
+            "its definition, or one it reads, has errors (see `implica check`)".to_string()
+        }
+        Unknown::TooLarge => {
+            "its function takes more work to compute than the budget allows".to_string()
+        }
+    }
+}
+
+/// The names of a signal's inputs.
+pub fn input_names(model: &Model, inputs: &[usize]) -> Vec<String> {
+    inputs
+        .iter()
+        .map(|&i| model.signals[model.inputs[i]].name.to_string())
+        .collect()
+}
