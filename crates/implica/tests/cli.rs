@@ -289,7 +289,7 @@ fn fmt_keeps_permissions_and_leaves_the_original_when_the_write_fails() {
 
 #[test]
 fn help_is_available_on_every_subcommand() {
-    for sub in ["check", "fmt"] {
+    for sub in ["check", "fmt", "minimize", "table"] {
         let out = implica(&[sub, "--help"]);
         assert_eq!(out.status.code(), Some(0));
         assert!(stdout(&out).contains("Usage: implica"), "{sub}");
