@@ -132,8 +132,13 @@ fn form(
         .bdd
         .to_cover_over(local.dc, &local.inputs, MAX_START_CUBES);
     let (Ok(start), Ok(dc)) = (start, dc) else {
+        let ones = f.bdd.fraction_ones(local.on) * 2f64.powi(k as i32);
         return Ok(Err(NoForm {
-            reason: format!("its function has more than {MAX_START_CUBES} disjoint terms"),
+            reason: format!(
+                "too large: it reads {k} inputs and is 1 on {ones:.0} of 2^{k} input \
+                 combinations; its function has more than {MAX_START_CUBES} disjoint terms, \
+                 past what the heuristic starts from"
+            ),
         }));
     };
     let h = minimize_heuristic(&start, &dc, effort)?;

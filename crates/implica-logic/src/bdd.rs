@@ -513,6 +513,12 @@ impl Bdd {
     /// Number of input vectors where `f` is 1, over all [`Bdd::vars`] inputs
     /// (as a float: it may exceed every integer type for many inputs).
     pub fn count_ones(&self, f: BddRef) -> f64 {
+        self.fraction_ones(f) * 2f64.powi(self.vars as i32)
+    }
+
+    /// The fraction of all input vectors where `f` is 1: multiplied by
+    /// 2^k, the count over any k variables that include its support.
+    pub fn fraction_ones(&self, f: BddRef) -> f64 {
         let mut memo: HashMap<u32, f64> = HashMap::new();
         // Fraction of the input space where the node is 1.
         fn frac(b: &Bdd, n: u32, memo: &mut HashMap<u32, f64>) -> f64 {
@@ -527,7 +533,7 @@ impl Bdd {
             memo.insert(n, v);
             v
         }
-        frac(self, f.0, &mut memo) * 2f64.powi(self.vars as i32)
+        frac(self, f.0, &mut memo)
     }
 
     /// A sum of products of `f` (disjoint cubes, one per path to 1), over

@@ -59,11 +59,27 @@ impl TruthTable {
         assert!(i < vars, "variable {i} of {vars}");
         let mut t = TruthTable::zero(vars);
         let shift = vars - 1 - i;
-        for m in 0..(1usize << vars) {
-            if (m >> shift) & 1 == 1 {
-                t.set(m, true);
-            }
+        // Within a word, bit m is set when bit `shift` of m is: a fixed
+        // pattern for shifts below 6, whole words above.
+        const PATTERNS: [u64; 6] = [
+            0xAAAA_AAAA_AAAA_AAAA,
+            0xCCCC_CCCC_CCCC_CCCC,
+            0xF0F0_F0F0_F0F0_F0F0,
+            0xFF00_FF00_FF00_FF00,
+            0xFFFF_0000_FFFF_0000,
+            0xFFFF_FFFF_0000_0000,
+        ];
+        for (w, word) in t.words.iter_mut().enumerate() {
+            *word = if shift < 6 {
+                PATTERNS[shift]
+            } else if (w >> (shift - 6)) & 1 == 1 {
+                u64::MAX
+            } else {
+                0
+            };
         }
+        let last = t.words.len() - 1;
+        t.words[last] &= t.tail_mask();
         t
     }
 

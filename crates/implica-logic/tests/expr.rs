@@ -67,3 +67,17 @@ fn text_has_only_the_parentheses_precedence_needs() {
     assert_eq!(f.to_text(&name), "(a | b) & !(b & c)");
     assert_eq!(Xor(vec![And(vec![]), Or(vec![])]).to_text(&name), "1 ^ 0");
 }
+
+#[test]
+fn variables_have_their_bit_of_the_row_number() {
+    // Row m has variable i (0 = most significant) equal to bit vars-1-i of m.
+    for vars in 1..=12 {
+        for i in 0..vars {
+            let t = TruthTable::var(vars, i);
+            for m in 0..1usize << vars {
+                assert_eq!(t.get(m), (m >> (vars - 1 - i)) & 1 == 1, "{vars} {i} {m}");
+            }
+            assert_eq!(t.count_ones(), 1 << (vars - 1));
+        }
+    }
+}

@@ -241,3 +241,23 @@ fn problems_are_reported_with_the_right_exit_status() {
     let out = run(&["minimize", "/nonexistent/x.imp"], "");
     assert_eq!(out.status.code(), Some(2));
 }
+
+#[test]
+fn twenty_four_input_parity_is_too_large_and_says_what_is_known() {
+    // Its minimal sum has 2^23 terms (standard textbook result on parity).
+    let inputs: Vec<String> = (0..24).map(|i| format!("x{i}")).collect();
+    let src = format!(
+        "input {}\noutput p\np = {}\n",
+        inputs.join(", "),
+        inputs.join(" ^ ")
+    );
+    let (doc, out) = json(&["minimize", "-", "--format", "json"], &src);
+    assert_eq!(out.status.code(), Some(1));
+    let p = signal(&doc, "p");
+    assert_eq!(p["inputs"].as_array().unwrap().len(), 24);
+    let why = p["sop"]["error"].as_str().unwrap();
+    assert!(
+        why.contains("24 inputs") && why.contains("8388608"),
+        "{why}"
+    );
+}
