@@ -99,10 +99,15 @@ impl Cube {
 
     /// The truth table of the cube over `vars` (≤ [`crate::MAX_VARS`]) variables.
     pub fn truth_table(&self, vars: usize) -> TruthTable {
-        let mut t = TruthTable::zero(vars);
-        for m in 0..(1usize << vars) {
-            if self.contains_minterm(vars, m) {
-                t.set(m, true);
+        if self.is_empty(vars) {
+            return TruthTable::zero(vars);
+        }
+        let mut t = TruthTable::one(vars);
+        for i in 0..vars {
+            match self.literal_of(i) {
+                Some(true) => t = t.and(&TruthTable::var(vars, i)),
+                Some(false) => t = t.and_not(&TruthTable::var(vars, i)),
+                None => {}
             }
         }
         t
