@@ -143,7 +143,7 @@ fn form(
     };
     let h = minimize_heuristic(&start, &dc, effort)?;
     let mut cover = h.cover;
-    sort_terms(&mut cover);
+    cover.sort_for_reading();
     Ok(Ok(Form {
         expression: expression(&cover, product_of_sums),
         terms: cover.len(),
@@ -153,21 +153,6 @@ fn form(
         method: Method::Heuristic,
         cover,
     }))
-}
-
-/// Terms in reading order: by their literals, the first input first, a
-/// positive literal before a negative one before none.
-fn sort_terms(cover: &mut Cover) {
-    let vars = cover.vars;
-    cover.cubes.sort_by_cached_key(|c| {
-        (0..vars)
-            .map(|i| match c.literal_of(i) {
-                Some(true) => 0u8,
-                Some(false) => 1,
-                None => 2,
-            })
-            .collect::<Vec<u8>>()
-    });
 }
 
 fn expression(cover: &Cover, product_of_sums: bool) -> BoolExpr {
@@ -186,7 +171,7 @@ fn check_exact(
     dc: &TruthTable,
     product_of_sums: bool,
 ) -> Result<Form, NoForm> {
-    sort_terms(&mut m.cover);
+    m.cover.sort_for_reading();
     let e = expression(&m.cover, product_of_sums);
     let t = e.truth_table(on.vars());
     if !t.and_not(dc).eq(&on.and_not(dc)) {

@@ -1,5 +1,20 @@
 //! Analyses of a given sum of products: redundant terms, redundant literals,
 //! static hazards, and the hazard-free cover.
+//!
+//! ```
+//! use implica_logic::{Budget, Cover, Cube, TruthTable, hazard_free_cover, redundant_terms, static1_hazards};
+//! // a&b | !a&c | b&c over (a, b, c): the consensus term b&c is redundant,
+//! // and without it the cover has a static-1 hazard when a changes with b = c = 1.
+//! let lit = |i, p| Cube::literal(3, i, p);
+//! let (ab, nac, bc) = (lit(0, true).and(&lit(1, true)), lit(0, false).and(&lit(2, true)), lit(1, true).and(&lit(2, true)));
+//! let dc = TruthTable::zero(3);
+//! let full = Cover { vars: 3, cubes: vec![ab, nac, bc] };
+//! assert_eq!(redundant_terms(&full, &dc), vec![2]);
+//! let minimal = Cover { vars: 3, cubes: vec![ab, nac] };
+//! assert_eq!(static1_hazards(&minimal, &dc), vec![(3, 7)]); // rows 011 and 111
+//! let fixed = hazard_free_cover(&minimal, &minimal.truth_table(), &dc, &Budget::default()).unwrap();
+//! assert!(static1_hazards(&fixed, &dc).is_empty());
+//! ```
 
 use crate::{Budget, Cover, Cube, TooLarge, TruthTable, prime_implicants};
 

@@ -7,6 +7,22 @@
 //! manager owns the nodes of all the functions built in it; a function is a
 //! [`BddRef`] into it. Two functions are equal exactly when their refs are
 //! (canonical form), which makes equivalence a comparison.
+//!
+//! ```
+//! use implica_logic::{Bdd, BoolExpr, Effort};
+//! // Over 80 inputs: x0 & x79 | !x0 & x79 is just x79.
+//! let (x0, x79) = (BoolExpr::Var(0), BoolExpr::Var(79));
+//! let e = BoolExpr::Or(vec![
+//!     BoolExpr::And(vec![x0.clone(), x79.clone()]),
+//!     BoolExpr::And(vec![BoolExpr::negate(x0), x79.clone()]),
+//! ]);
+//! let mut bdd = Bdd::new(80);
+//! let mut effort = Effort::new(1_000_000);
+//! let f = bdd.from_expr(&e, &mut effort).unwrap();
+//! let g = bdd.from_expr(&x79, &mut effort).unwrap();
+//! assert_eq!(bdd.counterexample(f, g, &mut effort).unwrap(), None);
+//! assert_eq!(bdd.support(f), vec![79]);
+//! ```
 
 use crate::{BoolExpr, Cover, Cube, Effort, Interrupted};
 use std::collections::HashMap;

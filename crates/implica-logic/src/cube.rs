@@ -137,6 +137,21 @@ impl Cover {
         self.cubes.iter().map(|c| c.literals(self.vars)).sum()
     }
 
+    /// Puts the terms in reading order: by their literals, variable 0
+    /// first, a positive literal before a negative one before none.
+    pub fn sort_for_reading(&mut self) {
+        let vars = self.vars;
+        self.cubes.sort_by_cached_key(|c| {
+            (0..vars)
+                .map(|i| match c.literal_of(i) {
+                    Some(true) => 0u8,
+                    Some(false) => 1,
+                    None => 2,
+                })
+                .collect::<Vec<u8>>()
+        });
+    }
+
     /// The truth table of the sum.
     pub fn truth_table(&self) -> TruthTable {
         self.cubes

@@ -1,5 +1,16 @@
 //! A compact Boolean expression tree: what the analysis builds functions
 //! from and what minimized covers are printed as.
+//!
+//! ```
+//! use implica_logic::{BoolExpr, Budget, TruthTable, minimize_sop};
+//! // !(a & b) over (a, b), minimized and printed: !a | !b.
+//! let e = BoolExpr::negate(BoolExpr::And(vec![BoolExpr::Var(0), BoolExpr::Var(1)]));
+//! let t = e.truth_table(2);
+//! let mut m = minimize_sop(&t, &TruthTable::zero(2), &Budget::default()).unwrap();
+//! m.cover.sort_for_reading();
+//! let names = ["a", "b"];
+//! assert_eq!(BoolExpr::from_cover(&m.cover).to_text(&|i| names[i].to_string()), "!a | !b");
+//! ```
 
 use crate::{Cover, TruthTable};
 

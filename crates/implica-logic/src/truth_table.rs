@@ -1,4 +1,14 @@
 //! Bit-parallel truth tables.
+//!
+//! ```
+//! use implica_logic::TruthTable;
+//! // a ^ b and (a | b) & !(a & b) over (a, b) agree; a | b differs on row 3.
+//! let (a, b) = (TruthTable::var(2, 0), TruthTable::var(2, 1));
+//! let x = a.xor(&b);
+//! assert_eq!(x.counterexample(&a.or(&b).and_not(&a.and(&b))), None);
+//! assert_eq!(x.counterexample(&a.or(&b)), Some(3));
+//! assert_eq!(x.support(), vec![0, 1]);
+//! ```
 
 /// The most inputs a [`TruthTable`] holds: 2^20 bits = 16,384 words = 128 KiB.
 pub const MAX_VARS: usize = 20;

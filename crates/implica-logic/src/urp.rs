@@ -6,6 +6,21 @@
 //!
 //! Their cost can be exponential in the inputs (the complement of n-input
 //! parity has 2^(n-1) cubes), so each takes an [`Effort`].
+//!
+//! ```
+//! use implica_logic::{Cover, Cube, Effort};
+//! // Over 40 inputs: x3 & x7 | !x3 | !x7 is a tautology, and x3 & x7 | !x3 is
+//! // not: it is 0 where x3 = 1 and x7 = 0.
+//! let n = 40;
+//! let both = Cube::literal(n, 3, true).and(&Cube::literal(n, 7, true));
+//! let f = Cover { vars: n, cubes: vec![both, Cube::literal(n, 3, false), Cube::literal(n, 7, false)] };
+//! let mut effort = Effort::new(1_000_000);
+//! assert!(f.is_tautology(&mut effort).unwrap());
+//! let g = Cover { vars: n, cubes: vec![both, Cube::literal(n, 3, false)] };
+//! let zero = g.find_zero(&mut effort).unwrap().unwrap();
+//! assert!(zero[3] && !zero[7]);
+//! assert_eq!(g.complement(&mut effort).unwrap().len(), 1); // x3 & !x7
+//! ```
 
 use crate::{Cover, Cube, Effort, Interrupted};
 
