@@ -27,9 +27,9 @@ use std::process::{Child, ChildStdin, ChildStdout, Command, Stdio};
 
 /// Which functions, how many: (inputs, count, shape). Sized so that sympy,
 /// the slow side, needs well under a minute: its time grows steeply with the
-/// care set (measured: about 4 ms per form at 5 inputs, 40 ms at 7, 0.3 s at
-/// 8, several seconds at 9 and over a minute at 10 for balanced functions).
-/// At 9 and 10 inputs the functions are therefore sparse, in the on-set for
+/// care set (measured on balanced functions: about 2 ms per form at 5
+/// inputs, 30 to 50 ms at 7, 0.2 to 0.5 s at 8, 3 s at 9, over a minute at
+/// 10). At 9 and 10 inputs the functions are therefore sparse, in the on-set for
 /// the sum and in the off-set for the product (sympy's POSform works on the
 /// off-set and don't-cares, SOPform on the on-set and don't-cares).
 const PLAN: &[(usize, usize, Shape)] = &[
