@@ -6,7 +6,6 @@
 //! Cost: fewest product terms, then fewest literals.
 
 use crate::{Cover, Cube, TruthTable};
-use std::collections::HashSet;
 
 /// Limits of one minimization. Past them the result is not proven minimal
 /// (or, for the inputs and primes, not attempted); nothing runs unbounded.
@@ -14,7 +13,8 @@ use std::collections::HashSet;
 pub struct Budget {
     /// Most inputs handled exactly.
     pub max_vars: usize,
-    /// Most implicants held while generating the prime implicants.
+    /// Most prime implicants generated (the generation holds only these and
+    /// one implicant table per free input, so memory stays bounded).
     pub max_primes: usize,
     /// Most branch-and-bound nodes explored; past this the best cover found
     /// so far is returned with its lower bound.
@@ -119,6 +119,141 @@ fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), T
     Ok(())
 }
 
+/// Masks of the bit positions `l` of a 64-bit word whose index bit `b` is 0.
+const LOW_HALF: [u64; 6] = [
+    0x5555_5555_5555_5555,
+    0x3333_3333_3333_3333,
+    0x0F0F_0F0F_0F0F_0F0F,
+    0x00FF_00FF_00FF_00FF,
+    0x0000_FFFF_0000_FFFF,
+    0x0000_0000_FFFF_FFFF,
+];
+
+/// Each bit of `x` exchanged with the bit whose index differs in bit `b` (< 6).
+fn swap_bits(x: u64, b: usize) -> u64 {
+    let s = 1u32 << b;
+    ((x & LOW_HALF[b]) << s) | ((x >> s) & LOW_HALF[b])
+}
+
+fn table_words(t: &TruthTable) -> Vec<u64> {
+    let mut words = vec![0u64; (1usize << t.vars()).div_ceil(64)];
+    for m in t.minterms() {
+        words[m / 64] |= 1 << (m % 64);
+    }
+    words
+}
+
+/// Prime generation over bit-parallel implicant tables, one per set of free
+/// minterm bits, visited depth first (each set from the set without its
+/// highest bit). The table of a set says, for each cube of that shape,
+/// whether it is an implicant: bit `l` of word `c` stands for the cube whose
+/// low six minterm bits are `l` (replicated along the free ones) and whose
+/// other bound bits are `c`, packed. Freeing a low bit ANDs each word with
+/// itself, bits exchanged; freeing a high bit ANDs pairs of words and halves
+/// the table. A cube is prime when no neighbour across a bound bit is an
+/// implicant. Memory is one table per depth plus the primes; work is at most
+/// 64 * 3^(n-6) words per bound bit.
+struct PrimeSearch<'a> {
+    vars: usize,
+    low: usize,
+    budget: &'a Budget,
+    primes: Vec<Implicant>,
+    too_many: bool,
+}
+
+impl PrimeSearch<'_> {
+    /// `care`: implicant table of `free`; `need`: whether each cube holds a
+    /// required minterm; `bound_high`: the minterm bit of each packed bit of
+    /// the word index.
+    fn visit(&mut self, free: u32, care: &[u64], need: &[u64], bound_high: &[u32], next: usize) {
+        self.collect(free, care, need, bound_high);
+        if self.too_many {
+            return;
+        }
+        for b in next..self.vars {
+            let (c, n, h): (Vec<u64>, Vec<u64>, Vec<u32>) = if b < self.low {
+                (
+                    care.iter().map(|&w| w & swap_bits(w, b)).collect(),
+                    need.iter().map(|&w| w | swap_bits(w, b)).collect(),
+                    bound_high.to_vec(),
+                )
+            } else {
+                let Some(p) = bound_high.iter().position(|&h| h as usize == b) else {
+                    continue;
+                };
+                let stride = 1usize << p;
+                let pair = |i: usize| ((i >> p) << (p + 1)) | (i & (stride - 1));
+                let half = care.len() / 2;
+                let mut h = bound_high.to_vec();
+                h.remove(p);
+                (
+                    (0..half)
+                        .map(|i| care[pair(i)] & care[pair(i) | stride])
+                        .collect(),
+                    (0..half)
+                        .map(|i| need[pair(i)] | need[pair(i) | stride])
+                        .collect(),
+                    h,
+                )
+            };
+            if c.iter().all(|&w| w == 0) {
+                continue;
+            }
+            self.visit(free | 1 << b, &c, &n, &h, b + 1);
+            if self.too_many {
+                return;
+            }
+        }
+    }
+
+    fn collect(&mut self, free: u32, care: &[u64], need: &[u64], bound_high: &[u32]) {
+        let low_free = free & ((1u32 << self.low) - 1);
+        let mut representative = u64::MAX;
+        let mut bound_low = Vec::new();
+        for b in 0..self.low {
+            if low_free >> b & 1 == 1 {
+                representative &= LOW_HALF[b];
+            } else {
+                bound_low.push(b);
+            }
+        }
+        for (c, (&w, &r)) in care.iter().zip(need).enumerate() {
+            if w == 0 {
+                continue;
+            }
+            let mut larger = 0u64;
+            for &b in &bound_low {
+                larger |= swap_bits(w, b);
+            }
+            for p in 0..bound_high.len() {
+                larger |= care[c ^ (1 << p)];
+            }
+            let mut prime = w & !larger & r & representative;
+            if prime == 0 {
+                continue;
+            }
+            let mut high = 0u32;
+            for (p, &h) in bound_high.iter().enumerate() {
+                if c >> p & 1 == 1 {
+                    high |= 1 << h;
+                }
+            }
+            while prime != 0 {
+                let l = prime.trailing_zeros();
+                prime &= prime - 1;
+                if self.primes.len() == self.budget.max_primes {
+                    self.too_many = true;
+                    return;
+                }
+                self.primes.push(Implicant {
+                    value: high | l,
+                    free,
+                });
+            }
+        }
+    }
+}
+
 fn primes_of(
     on: &TruthTable,
     dc: &TruthTable,
@@ -126,56 +261,28 @@ fn primes_of(
 ) -> Result<Vec<Implicant>, TooLarge> {
     check_size(on, dc, budget)?;
     let vars = on.vars();
-    let care = on.or(dc);
-    let mut level: HashSet<Implicant> = care
-        .minterms()
-        .into_iter()
-        .map(|m| Implicant {
-            value: m as u32,
-            free: 0,
-        })
-        .collect();
-    let mut primes = Vec::new();
-    while !level.is_empty() {
-        let mut next = HashSet::new();
-        let mut merged: HashSet<Implicant> = HashSet::new();
-        for &imp in &level {
-            for b in 0..vars {
-                let bit = 1u32 << b;
-                if imp.free & bit != 0 || imp.value & bit != 0 {
-                    continue;
-                }
-                let partner = Implicant {
-                    value: imp.value | bit,
-                    free: imp.free,
-                };
-                if level.contains(&partner) {
-                    next.insert(Implicant {
-                        value: imp.value,
-                        free: imp.free | bit,
-                    });
-                    merged.insert(imp);
-                    merged.insert(partner);
-                }
-            }
-        }
-        for &imp in &level {
-            if !merged.contains(&imp) && imp.minterms().any(|m| on.get(m) && !dc.get(m)) {
-                primes.push(imp);
-            }
-        }
-        if primes.len() + next.len() > budget.max_primes {
-            return Err(TooLarge {
-                reason: format!(
-                    "more than {} implicants while generating the prime implicants",
-                    budget.max_primes
-                ),
-                vars,
-                on_set: on.and_not(dc).count_ones(),
-            });
-        }
-        level = next;
+    let low = vars.min(6);
+    let mut search = PrimeSearch {
+        vars,
+        low,
+        budget,
+        primes: Vec::new(),
+        too_many: false,
+    };
+    let care = table_words(&on.or(dc));
+    let need = table_words(&on.and_not(dc));
+    let bound_high: Vec<u32> = (low as u32..vars as u32).collect();
+    if care.iter().any(|&w| w != 0) {
+        search.visit(0, &care, &need, &bound_high, 0);
     }
+    if search.too_many {
+        return Err(TooLarge {
+            reason: format!("more than {} prime implicants", budget.max_primes),
+            vars,
+            on_set: on.and_not(dc).count_ones(),
+        });
+    }
+    let mut primes = search.primes;
     primes.sort();
     Ok(primes)
 }

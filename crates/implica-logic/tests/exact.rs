@@ -1,7 +1,9 @@
 //! Exact minimization checked against outside references and an
 //! independent brute force. Sources are named beside each check.
 
-use implica_logic::{Budget, Cover, TruthTable, minimize_pos, minimize_sop, prime_implicants};
+use implica_logic::{
+    Budget, Cover, Cube, TruthTable, minimize_pos, minimize_sop, prime_implicants,
+};
 
 fn table(vars: usize, bits: u64) -> TruthTable {
     let mut t = TruthTable::zero(vars);
@@ -289,4 +291,92 @@ fn constants() {
     assert!(zero.cover.is_empty() && zero.proven_minimal);
     let one = minimize_sop(&TruthTable::one(3), &none, &Budget::default()).unwrap();
     assert_eq!((one.cover.len(), one.cover.literals()), (1, 0));
+}
+
+/// Every prime implicant by enumerating all 3^n cubes: a cube is prime when
+/// it lies inside `on | dc` and no cube with one literal fewer does, and it
+/// is reported when it holds a minterm of `on` outside `dc` (the definition;
+/// common practice).
+fn brute_primes(on: &TruthTable, dc: &TruthTable) -> Vec<Cube> {
+    let vars = on.vars();
+    let care = on.or(dc);
+    let need = on.and_not(dc);
+    let inside = |value: usize, free: usize| {
+        (0..(1usize << vars)).all(|m| m & !free != value || care.get(m))
+    };
+    let mut out = Vec::new();
+    for free in 0..(1usize << vars) {
+        for value in 0..(1usize << vars) {
+            if value & free != 0 || !inside(value, free) {
+                continue;
+            }
+            let grows =
+                (0..vars).any(|b| free >> b & 1 == 0 && inside(value & !(1 << b), free | 1 << b));
+            let useful = (0..(1usize << vars)).any(|m| m & !free == value && need.get(m));
+            if grows || !useful {
+                continue;
+            }
+            let mut cube = Cube::universe(vars);
+            for i in 0..vars {
+                let b = vars - 1 - i;
+                if free >> b & 1 == 0 {
+                    cube = cube.and(&Cube::literal(vars, i, value >> b & 1 == 1));
+                }
+            }
+            out.push(cube);
+        }
+    }
+    out.sort();
+    out
+}
+
+#[test]
+fn prime_implicants_equal_an_enumeration_of_every_cube() {
+    let mut x = 0x9E37_79B9_7F4A_7C15u64;
+    for vars in 0..=8usize {
+        for density in [2u64, 5, 7] {
+            for _ in 0..4 {
+                let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+                for m in 0..(1usize << vars) {
+                    x ^= x << 13;
+                    x ^= x >> 7;
+                    x ^= x << 17;
+                    match x % 8 {
+                        k if k < density => on.set(m, true),
+                        k if k == density => dc.set(m, true),
+                        _ => {}
+                    }
+                }
+                let mut got = prime_implicants(&on, &dc, &Budget::default())
+                    .unwrap()
+                    .cubes;
+                got.sort();
+                assert_eq!(got, brute_primes(&on, &dc), "{vars} inputs: {on:?} {dc:?}");
+            }
+        }
+    }
+}
+
+#[test]
+fn prime_budget_counts_primes() {
+    // 8-input parity has 128 primes (its minterms; see parity_needs_every_minterm).
+    let mut odd = TruthTable::zero(8);
+    for m in 0..256usize {
+        odd.set(m, m.count_ones() % 2 == 1);
+    }
+    let none = TruthTable::zero(8);
+    let budget = |max_primes| Budget {
+        max_primes,
+        ..Budget::default()
+    };
+    assert_eq!(
+        prime_implicants(&odd, &none, &budget(128)).unwrap().len(),
+        128
+    );
+    let err = prime_implicants(&odd, &none, &budget(127)).unwrap_err();
+    assert!(
+        err.reason.contains("127 prime implicants"),
+        "{}",
+        err.reason
+    );
 }
