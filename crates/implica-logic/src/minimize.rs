@@ -1,7 +1,10 @@
-//! Exact two-level minimization with don't-cares: all prime implicants by
-//! the tabular method of Quine and McCluskey, then a minimum cover by
-//! branch and bound (essential primes, row and column dominance, and a lower
-//! bound from a maximal independent set of rows).
+//! Exact two-level minimization with don't-cares: all prime implicants by a
+//! bit-parallel form of the tabular method (one implicant table per set of
+//! free inputs, visited depth first, so only the primes are held), then a
+//! minimum cover by branch and bound: essential columns, row and column
+//! dominance, independent connected components searched apart, and a lower
+//! bound by Lagrangian relaxation (started from an independent set of rows)
+//! whose reduced costs also drop columns and order the branches.
 //!
 //! Cost: fewest product terms, then fewest literals.
 
@@ -19,6 +22,11 @@ pub struct Budget {
     /// Most branch-and-bound nodes explored; past this the best cover found
     /// so far is returned with its lower bound.
     pub max_nodes: u64,
+    /// Most work in the cover search, counted in covering-matrix entries
+    /// visited (a measure of time that does not depend on the machine:
+    /// about 10^7 entries take 0.07 s on the machine of docs/benchmarks.md).
+    /// Past this, as past `max_nodes`.
+    pub max_work: u64,
 }
 
 impl Default for Budget {
@@ -27,6 +35,7 @@ impl Default for Budget {
             max_vars: 16,
             max_primes: 200_000,
             max_nodes: 200_000,
+            max_work: 10_000_000,
         }
     }
 }
@@ -210,9 +219,9 @@ impl PrimeSearch<'_> {
         let low_free = free & ((1u32 << self.low) - 1);
         let mut representative = u64::MAX;
         let mut bound_low = Vec::new();
-        for b in 0..self.low {
+        for (b, &half) in LOW_HALF.iter().enumerate().take(self.low) {
             if low_free >> b & 1 == 1 {
-                representative &= LOW_HALF[b];
+                representative &= half;
             } else {
                 bound_low.push(b);
             }
@@ -312,23 +321,23 @@ pub fn minimize_sop(
     let vars = on.vars();
     let primes = primes_of(on, dc, budget)?;
     let required = on.and_not(dc).minterms();
-    let mut row_of = std::collections::HashMap::with_capacity(required.len());
+    let mut row_of = vec![u32::MAX; 1usize << vars];
     for (r, &m) in required.iter().enumerate() {
-        row_of.insert(m, r as u32);
+        row_of[m] = r as u32;
     }
-    let col_rows: Vec<Vec<u32>> = primes
+    let mut rows = vec![Vec::new(); required.len()];
+    for (c, p) in primes.iter().enumerate() {
+        for m in p.minterms() {
+            if row_of[m] != u32::MAX {
+                rows[row_of[m] as usize].push(c as u32);
+            }
+        }
+    }
+    let literals: Vec<u64> = primes
         .iter()
-        .map(|p| {
-            p.minterms()
-                .filter_map(|m| row_of.get(&m).copied())
-                .collect()
-        })
+        .map(|p| (vars - p.free.count_ones() as usize) as u64)
         .collect();
-    let col_cost: Vec<u64> = primes
-        .iter()
-        .map(|p| (1u64 << 32) + (vars - p.free.count_ones() as usize) as u64)
-        .collect();
-    let solution = CoverProblem::new(required.len(), col_rows, col_cost).solve(budget.max_nodes);
+    let solution = solve_cover(rows, &literals, vars, budget);
     let mut cubes: Vec<Cube> = solution
         .columns
         .iter()
@@ -359,310 +368,672 @@ pub fn minimize_pos(
     minimize_sop(&off, dc, budget)
 }
 
-/// Unate covering: choose columns so that every row is covered, at least cost.
-struct CoverProblem {
-    row_cols: Vec<Vec<u32>>,
-    col_rows: Vec<Vec<u32>>,
-    col_cost: Vec<u64>,
-}
-
+/// Unate covering: choose columns so that every row is covered, at least
+/// cost. Rows list their columns; a column of `literals[c]` literals costs
+/// `term + literals[c]`, where `term` exceeds the literals of any cover, so
+/// that fewer terms always win.
 struct Solution {
     columns: Vec<usize>,
     proven: bool,
     lower_bound_terms: usize,
 }
 
-#[derive(Clone)]
-struct State {
-    row_alive: Vec<bool>,
-    col_alive: Vec<bool>,
-    chosen: Vec<usize>,
-    cost: u64,
+fn solve_cover(rows: Vec<Vec<u32>>, literals: &[u64], vars: usize, budget: &Budget) -> Solution {
+    // A search never picks more columns than there are rows.
+    let term = (rows.len() as u64) * (vars as u64) + 1;
+    let mut packed = Rows::default();
+    for row in &rows {
+        packed.push(row.iter().copied());
+    }
+    let matrix = Matrix {
+        mult: vec![0; rows.len()],
+        rows: packed,
+        cost: literals.iter().map(|&l| term + l).collect(),
+        id: (0..literals.len() as u32).collect(),
+    };
+    let mut solver = Solver {
+        nodes: 0,
+        max_nodes: budget.max_nodes,
+        work: 0,
+        max_work: budget.max_work,
+        exhausted: false,
+    };
+    let part = solver.solve(matrix, ROOT_STEPS);
+    let mut columns: Vec<usize> = part.columns.iter().map(|&c| c as usize).collect();
+    columns.sort_unstable();
+    Solution {
+        proven: part.proven,
+        lower_bound_terms: ((part.lower_bound / term) as usize).min(columns.len()),
+        columns,
+    }
 }
 
-struct Search<'a> {
-    p: &'a CoverProblem,
-    best: Option<(u64, Vec<usize>)>,
+/// Lagrange multipliers are fixed point, in units of 1/`SCALE` of a cost,
+/// so that every bound is computed exactly.
+const SCALE: i64 = 256;
+
+/// Lists of column indices, one per row, stored end to end.
+#[derive(Clone, Default)]
+struct Rows {
+    start: Vec<u32>,
+    entries: Vec<u32>,
+}
+
+impl Rows {
+    fn len(&self) -> usize {
+        self.start.len()
+    }
+
+    fn is_empty(&self) -> bool {
+        self.start.is_empty()
+    }
+
+    fn push(&mut self, row: impl Iterator<Item = u32>) {
+        self.start.push(self.entries.len() as u32);
+        self.entries.extend(row);
+    }
+
+    fn iter(&self) -> impl Iterator<Item = &[u32]> {
+        (0..self.len()).map(|r| &self[r])
+    }
+}
+
+impl std::ops::Index<usize> for Rows {
+    type Output = [u32];
+
+    fn index(&self, r: usize) -> &[u32] {
+        let end = self
+            .start
+            .get(r + 1)
+            .map_or(self.entries.len(), |&e| e as usize);
+        &self.entries[self.start[r] as usize..end]
+    }
+}
+
+/// A covering matrix: each row's columns (ascending local indices), each
+/// column's cost and its index in the whole problem, and a Lagrange
+/// multiplier per row carried from the parent problem as a warm start.
+#[derive(Clone)]
+struct Matrix {
+    rows: Rows,
+    cost: Vec<u64>,
+    id: Vec<u32>,
+    mult: Vec<i64>,
+}
+
+impl Matrix {
+    fn col_rows(&self) -> Rows {
+        let mut start = vec![0u32; self.cost.len() + 1];
+        for &c in &self.rows.entries {
+            start[c as usize + 1] += 1;
+        }
+        for c in 0..self.cost.len() {
+            start[c + 1] += start[c];
+        }
+        let mut fill = start.clone();
+        let mut entries = vec![0u32; self.rows.entries.len()];
+        for (r, row) in self.rows.iter().enumerate() {
+            for &c in row {
+                entries[fill[c as usize] as usize] = r as u32;
+                fill[c as usize] += 1;
+            }
+        }
+        start.pop();
+        Rows { start, entries }
+    }
+
+    /// The submatrix of the live rows and columns, renumbered in order.
+    fn restrict(&self, row_live: &[bool], col_live: &[bool]) -> Matrix {
+        let mut index = vec![u32::MAX; self.cost.len()];
+        let mut cost = Vec::new();
+        let mut id = Vec::new();
+        for c in 0..self.cost.len() {
+            if col_live[c] {
+                index[c] = cost.len() as u32;
+                cost.push(self.cost[c]);
+                id.push(self.id[c]);
+            }
+        }
+        let mut rows = Rows::default();
+        let mut mult = Vec::new();
+        for (r, row) in self.rows.iter().enumerate() {
+            if row_live[r] {
+                rows.push(
+                    row.iter()
+                        .filter(|&&c| col_live[c as usize])
+                        .map(|&c| index[c as usize]),
+                );
+                mult.push(self.mult[r]);
+            }
+        }
+        Matrix {
+            rows,
+            cost,
+            id,
+            mult,
+        }
+    }
+
+    /// The matrix after choosing column `c` and dropping the columns in `drop`.
+    fn choose(&self, col_rows: &Rows, c: usize, drop: &[bool]) -> Matrix {
+        let mut row_live = vec![true; self.rows.len()];
+        for &r in &col_rows[c] {
+            row_live[r as usize] = false;
+        }
+        let mut col_live: Vec<bool> = drop.iter().map(|d| !d).collect();
+        col_live[c] = false;
+        self.restrict(&row_live, &col_live)
+    }
+
+    /// The connected components (rows linked by shared columns), each as
+    /// its own matrix; a cover of the whole is a cover of each.
+    fn components(&self) -> Vec<Matrix> {
+        let cols = self.cost.len();
+        let mut parent: Vec<u32> = (0..cols as u32).collect();
+        fn find(parent: &mut [u32], mut x: u32) -> u32 {
+            while parent[x as usize] != x {
+                parent[x as usize] = parent[parent[x as usize] as usize];
+                x = parent[x as usize];
+            }
+            x
+        }
+        for row in self.rows.iter() {
+            let a = find(&mut parent, row[0]);
+            for &c in &row[1..] {
+                let b = find(&mut parent, c);
+                if a != b {
+                    parent[b as usize] = a;
+                }
+            }
+        }
+        let roots: Vec<u32> = (0..cols as u32).map(|c| find(&mut parent, c)).collect();
+        let mut group_of = vec![usize::MAX; cols];
+        let mut groups = 0;
+        for row in self.rows.iter() {
+            let root = roots[row[0] as usize] as usize;
+            if group_of[root] == usize::MAX {
+                group_of[root] = groups;
+                groups += 1;
+            }
+        }
+        if groups <= 1 {
+            return vec![self.clone()];
+        }
+        (0..groups)
+            .map(|g| {
+                let row_live: Vec<bool> = self
+                    .rows
+                    .iter()
+                    .map(|row| group_of[roots[row[0] as usize] as usize] == g)
+                    .collect();
+                let col_live: Vec<bool> = roots
+                    .iter()
+                    .map(|&root| group_of[root as usize] == g)
+                    .collect();
+                self.restrict(&row_live, &col_live)
+            })
+            .collect()
+    }
+}
+
+/// Whether every bit of `a` is in `b`.
+fn subset_bits(a: &[u64], b: &[u64]) -> bool {
+    a.iter().zip(b).all(|(x, y)| x & !y == 0)
+}
+
+/// Bit sets of `width` bits end to end, one per list, of its live entries.
+struct Bits {
+    words: usize,
+    bits: Vec<u64>,
+}
+
+impl Bits {
+    fn new<'a>(
+        lists: impl Iterator<Item = &'a [u32]>,
+        width: usize,
+        live: impl Fn(u32) -> bool,
+    ) -> Bits {
+        let words = width.div_ceil(64);
+        let mut bits = Vec::new();
+        for list in lists {
+            let at = bits.len();
+            bits.resize(at + words, 0u64);
+            for &e in list.iter().filter(|&&e| live(e)) {
+                bits[at + e as usize / 64] |= 1 << (e % 64);
+            }
+        }
+        Bits { words, bits }
+    }
+
+    fn get(&self, i: usize) -> &[u64] {
+        &self.bits[i * self.words..(i + 1) * self.words]
+    }
+}
+
+/// Essential columns, row dominance and column dominance until nothing
+/// changes; chosen columns are added to `chosen` and `cost`. `None` when a
+/// row can no longer be covered.
+fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix> {
+    loop {
+        let (rows, cols) = (m.rows.len(), m.cost.len());
+        let mut row_live = vec![true; rows];
+        let mut col_live = vec![true; cols];
+        let mut picked = vec![false; cols];
+        let mut changed = false;
+        for row in m.rows.iter() {
+            match row {
+                [] => return None,
+                &[c] if !picked[c as usize] => {
+                    picked[c as usize] = true;
+                    col_live[c as usize] = false;
+                    chosen.push(m.id[c as usize]);
+                    *cost += m.cost[c as usize];
+                    changed = true;
+                }
+                _ => {}
+            }
+        }
+        if changed {
+            for (r, row) in m.rows.iter().enumerate() {
+                row_live[r] = !row.iter().any(|&c| picked[c as usize]);
+            }
+            m = m.restrict(&row_live, &col_live);
+            continue;
+        }
+        let col_rows = m.col_rows();
+        // Row dominance: a row whose columns include all of another row's is
+        // covered whenever that row is. Such a row holds the other row's
+        // first column, so only that column's rows are candidates.
+        let row_bits = Bits::new(m.rows.iter(), cols, |_| true);
+        for q in 0..rows {
+            if !row_live[q] {
+                continue;
+            }
+            let len_q = m.rows[q].len();
+            for &r in &col_rows[m.rows[q][0] as usize] {
+                let r = r as usize;
+                if r == q || !row_live[r] {
+                    continue;
+                }
+                let len_r = m.rows[r].len();
+                if len_r >= len_q
+                    && (len_r > len_q || q < r)
+                    && subset_bits(row_bits.get(q), row_bits.get(r))
+                {
+                    row_live[r] = false;
+                    changed = true;
+                }
+            }
+        }
+        // Column dominance: a column whose live rows another column of no
+        // greater cost also covers is never needed. Such a column covers the
+        // first of those rows, so only its columns are candidates.
+        let col_bits = Bits::new(col_rows.iter(), rows, |r| row_live[r as usize]);
+        let live_count: Vec<usize> = (0..cols)
+            .map(|c| {
+                col_bits
+                    .get(c)
+                    .iter()
+                    .map(|w| w.count_ones() as usize)
+                    .sum()
+            })
+            .collect();
+        for a in 0..cols {
+            let Some(&first) = col_rows[a].iter().find(|&&r| row_live[r as usize]) else {
+                col_live[a] = false;
+                changed = true;
+                continue;
+            };
+            let dominated = m.rows[first as usize].iter().any(|&b| {
+                let b = b as usize;
+                if b == a || !col_live[b] {
+                    return false;
+                }
+                let (ca, cb) = (m.cost[a], m.cost[b]);
+                let (na, nb) = (live_count[a], live_count[b]);
+                let better = cb < ca || (cb == ca && (nb > na || b < a));
+                better && nb >= na && subset_bits(col_bits.get(a), col_bits.get(b))
+            });
+            if dominated {
+                col_live[a] = false;
+                changed = true;
+            }
+        }
+        if !changed {
+            return Some(m);
+        }
+        m = m.restrict(&row_live, &col_live);
+    }
+}
+
+/// A cover of part of the problem: its columns, cost, a lower bound on the
+/// cost of any cover, and whether the cover is proven of least cost.
+struct Part {
+    columns: Vec<u32>,
+    cost: u64,
+    lower_bound: u64,
+    proven: bool,
+}
+
+struct Solver {
     nodes: u64,
     max_nodes: u64,
+    work: u64,
+    max_work: u64,
     exhausted: bool,
 }
 
-impl CoverProblem {
-    fn new(rows: usize, col_rows: Vec<Vec<u32>>, col_cost: Vec<u64>) -> CoverProblem {
-        let mut row_cols = vec![Vec::new(); rows];
-        for (c, rs) in col_rows.iter().enumerate() {
-            for &r in rs {
-                row_cols[r as usize].push(c as u32);
-            }
-        }
-        CoverProblem {
-            row_cols,
-            col_rows,
-            col_cost,
-        }
-    }
+/// Subgradient steps at the root of a component and at each node.
+const ROOT_STEPS: usize = 300;
+const NODE_STEPS: usize = 40;
 
-    fn solve(&self, max_nodes: u64) -> Solution {
-        let mut state = State {
-            row_alive: vec![true; self.row_cols.len()],
-            col_alive: vec![true; self.col_rows.len()],
-            chosen: Vec::new(),
-            cost: 0,
+impl Solver {
+    /// The least-cost cover of `m` (a feasible matrix), each connected
+    /// component searched on its own.
+    fn solve(&mut self, m: Matrix, steps: usize) -> Part {
+        let mut chosen = Vec::new();
+        let mut cost = 0;
+        let Some(m) = reduce(m, &mut chosen, &mut cost) else {
+            // Unreachable for feasible matrices; claim nothing.
+            return Part {
+                columns: chosen,
+                cost: u64::MAX,
+                lower_bound: 0,
+                proven: false,
+            };
         };
-        let mut search = Search {
-            p: self,
-            best: None,
-            nodes: 0,
-            max_nodes,
-            exhausted: false,
+        let mut part = Part {
+            columns: chosen,
+            cost,
+            lower_bound: cost,
+            proven: true,
         };
-        // The root's bound, in terms: the essentials plus an independent set of rows.
-        let root_bound = if search.reduce(&mut state) {
-            state.chosen.len() + search.independent_rows(&state).len()
-        } else {
-            0
-        };
-        search.best = Some(search.greedy(state.clone()));
-        search.branch(state);
-        let (_, columns) = search.best.take().unwrap_or_default();
-        Solution {
-            proven: !search.exhausted,
-            lower_bound_terms: root_bound.min(columns.len()),
-            columns,
+        if m.rows.is_empty() {
+            return part;
         }
-    }
-}
-
-impl Search<'_> {
-    fn select(&self, s: &mut State, c: usize) {
-        s.chosen.push(c);
-        s.cost += self.p.col_cost[c];
-        s.col_alive[c] = false;
-        for &r in &self.p.col_rows[c] {
-            s.row_alive[r as usize] = false;
-        }
-    }
-
-    fn alive_cols_of<'s>(&'s self, s: &'s State, r: usize) -> impl Iterator<Item = usize> + 's {
-        self.p.row_cols[r]
-            .iter()
-            .map(|&c| c as usize)
-            .filter(move |&c| s.col_alive[c])
-    }
-
-    /// Essential columns and dominance until nothing changes. False when a
-    /// row can no longer be covered.
-    fn reduce(&self, s: &mut State) -> bool {
-        loop {
-            let mut changed = false;
-            for r in 0..s.row_alive.len() {
-                if !s.row_alive[r] {
-                    continue;
-                }
-                let mut cols = self.p.row_cols[r]
-                    .iter()
-                    .map(|&c| c as usize)
-                    .filter(|&c| s.col_alive[c]);
-                match (cols.next(), cols.next()) {
-                    (None, _) => return false,
-                    (Some(c), None) => {
-                        self.select(s, c);
-                        changed = true;
-                    }
-                    _ => {}
+        for mut component in m.components() {
+            let col_rows = component.col_rows();
+            let mut best = greedy(&component, &col_rows, None);
+            self.work += component.rows.entries.len() as u64 * (steps as u64 + 8);
+            let (bound, reduced) = lagrange(&mut component, &col_rows, best.0, steps);
+            if bound < best.0 {
+                // The reduced costs steer a second greedy cover.
+                let second = greedy(&component, &col_rows, Some(&reduced));
+                if second.0 < best.0 {
+                    best = second;
                 }
             }
-            // Live rows of each column and live columns of each row, sorted.
-            let col_live = live_lists(&self.p.col_rows, &s.col_alive, &s.row_alive);
-            // Column dominance: a column whose live rows another column of no
-            // greater cost also covers is never needed. Such a column covers
-            // the first of those rows, so only its columns are candidates.
-            for a in 0..s.col_alive.len() {
-                if !s.col_alive[a] {
-                    continue;
-                }
-                let rows_a = &col_live[a];
-                let Some(&first) = rows_a.first() else {
-                    s.col_alive[a] = false;
-                    changed = true;
-                    continue;
-                };
-                let dominated = self.p.row_cols[first as usize]
-                    .iter()
-                    .map(|&b| b as usize)
-                    .any(|b| {
-                        if b == a || !s.col_alive[b] {
-                            return false;
-                        }
-                        let rows_b = &col_live[b];
-                        let (ca, cb) = (self.p.col_cost[a], self.p.col_cost[b]);
-                        let better =
-                            cb < ca || (cb == ca && (rows_b.len() > rows_a.len() || b < a));
-                        better && rows_b.len() >= rows_a.len() && subset(rows_a, rows_b)
-                    });
-                if dominated {
-                    s.col_alive[a] = false;
-                    changed = true;
-                }
+            if bound < best.0 {
+                self.branch(component, 0, &mut Vec::new(), &mut best);
             }
-            // Row dominance: a row whose live columns include all of another
-            // row's is covered whenever that row is. Such a row is covered by
-            // the other row's first column, so only that column's rows are
-            // candidates.
-            let row_live = live_lists(&self.p.row_cols, &s.row_alive, &s.col_alive);
-            for q in 0..s.row_alive.len() {
-                if !s.row_alive[q] {
-                    continue;
-                }
-                let cols_q = &row_live[q];
-                let Some(&first) = cols_q.first() else {
-                    continue;
-                };
-                for &r in &self.p.col_rows[first as usize] {
-                    let r = r as usize;
-                    if r == q || !s.row_alive[r] {
-                        continue;
-                    }
-                    let cols_r = &row_live[r];
-                    if cols_r.len() >= cols_q.len()
-                        && (cols_r.len() > cols_q.len() || q < r)
-                        && subset(cols_q, cols_r)
-                    {
-                        s.row_alive[r] = false;
-                        changed = true;
-                    }
-                }
-            }
-            if !changed {
-                return true;
-            }
+            let proven = bound >= best.0 || !self.exhausted;
+            part.cost = part.cost.saturating_add(best.0);
+            part.columns.extend(best.1);
+            part.lower_bound += if proven { best.0 } else { bound.min(best.0) };
+            part.proven &= proven;
         }
+        part
     }
 
-    /// Rows no two of which share a live column: each needs its own term.
-    fn independent_rows(&self, s: &State) -> Vec<usize> {
-        let mut rows: Vec<usize> = (0..s.row_alive.len()).filter(|&r| s.row_alive[r]).collect();
-        rows.sort_by_key(|&r| self.alive_cols_of(s, r).count());
-        let mut used = vec![false; s.col_alive.len()];
-        let mut picked = Vec::new();
-        for r in rows {
-            let cols: Vec<usize> = self.alive_cols_of(s, r).collect();
-            if cols.iter().all(|&c| !used[c]) {
-                for c in cols {
-                    used[c] = true;
-                }
-                picked.push(r);
-            }
-        }
-        picked
-    }
-
-    fn lower_bound(&self, s: &State) -> u64 {
-        self.independent_rows(s)
-            .into_iter()
-            .map(|r| {
-                self.alive_cols_of(s, r)
-                    .map(|c| self.p.col_cost[c])
-                    .min()
-                    .unwrap_or(0)
-            })
-            .sum()
-    }
-
-    /// A cover by repeatedly taking the column that covers the most live rows per cost.
-    fn greedy(&self, mut s: State) -> (u64, Vec<usize>) {
-        while let Some(r) = (0..s.row_alive.len()).find(|&r| s.row_alive[r]) {
-            let best = self
-                .alive_cols_of(&s, r)
-                .max_by(|&a, &b| {
-                    let gain = |c: usize| {
-                        let n = self.p.col_rows[c]
-                            .iter()
-                            .filter(|&&r| s.row_alive[r as usize])
-                            .count();
-                        (n as f64) / (self.p.col_cost[c] as f64)
-                    };
-                    gain(a).total_cmp(&gain(b)).then(b.cmp(&a))
-                })
-                .expect("a live row has a live column");
-            self.select(&mut s, best);
-        }
-        (s.cost, s.chosen)
-    }
-
-    fn branch(&mut self, mut s: State) {
+    /// Branch and bound below a node whose chosen columns (`path`) cost
+    /// `cost`; `best` is the least-cost cover found so far.
+    fn branch(&mut self, m: Matrix, cost: u64, path: &mut Vec<u32>, best: &mut (u64, Vec<u32>)) {
         self.nodes += 1;
-        if self.nodes > self.max_nodes {
+        // Reduction and the bound visit the matrix about this often.
+        self.work += m.rows.entries.len() as u64 * (NODE_STEPS as u64 + 8);
+        if self.nodes > self.max_nodes || self.work > self.max_work {
             self.exhausted = true;
             return;
         }
-        if !self.reduce(&mut s) {
-            return;
-        }
-        let best_cost = self.best.as_ref().map_or(u64::MAX, |b| b.0);
-        if s.cost + self.lower_bound(&s) >= best_cost {
-            return;
-        }
-        let Some(r) = (0..s.row_alive.len())
-            .filter(|&r| s.row_alive[r])
-            .min_by_key(|&r| self.alive_cols_of(&s, r).count())
-        else {
-            self.best = Some((s.cost, s.chosen));
+        let depth = path.len();
+        let mut cost = cost;
+        let Some(m) = reduce(m, path, &mut cost) else {
+            path.truncate(depth);
             return;
         };
-        let mut cols: Vec<usize> = self.alive_cols_of(&s, r).collect();
-        // Columns covering the most live rows first: good covers early make the bound bite.
-        let live = |c: usize| {
-            self.p.col_rows[c]
-                .iter()
-                .filter(|&&r| s.row_alive[r as usize])
-                .count()
-        };
-        cols.sort_by_key(|&c| (std::cmp::Reverse(live(c)), self.p.col_cost[c]));
-        for (k, &c) in cols.iter().enumerate() {
-            let mut next = s.clone();
-            // Columns tried before this one are excluded: their branches are done.
-            for &earlier in &cols[..k] {
-                next.col_alive[earlier] = false;
+        self.branch_reduced(m, cost, path, best);
+        path.truncate(depth);
+    }
+
+    fn branch_reduced(
+        &mut self,
+        mut m: Matrix,
+        cost: u64,
+        path: &mut Vec<u32>,
+        best: &mut (u64, Vec<u32>),
+    ) {
+        if cost >= best.0 {
+            return;
+        }
+        if m.rows.is_empty() {
+            *best = (cost, path.clone());
+            return;
+        }
+        let components = m.components();
+        if components.len() > 1 {
+            // Components are independent: bound each, then solve each.
+            let mut bound = cost;
+            let mut parts = Vec::with_capacity(components.len());
+            for mut c in components {
+                let col_rows = c.col_rows();
+                let (b, _) = lagrange(&mut c, &col_rows, u64::MAX, NODE_STEPS);
+                bound = bound.saturating_add(b);
+                parts.push(c);
             }
-            self.select(&mut next, c);
-            self.branch(next);
+            if bound >= best.0 {
+                return;
+            }
+            let mut total = cost;
+            let mut columns = path.clone();
+            for c in parts {
+                let part = self.solve(c, NODE_STEPS);
+                total = total.saturating_add(part.cost);
+                columns.extend(part.columns);
+            }
+            if total < best.0 {
+                *best = (total, columns);
+            }
+            return;
+        }
+        let col_rows = m.col_rows();
+        let room = best.0 - cost;
+        let (bound, reduced) = lagrange(&mut m, &col_rows, room, NODE_STEPS);
+        if bound >= room {
+            return;
+        }
+        // A column whose reduced cost lifts the bound to the best cover's
+        // cost is in no better cover.
+        let drop: Vec<bool> = reduced
+            .iter()
+            .map(|&rc| rc > 0 && bound_of(bound, rc) >= room)
+            .collect();
+        let Some(row) = (0..m.rows.len())
+            .min_by_key(|&r| m.rows[r].iter().filter(|&&c| !drop[c as usize]).count())
+        else {
+            return;
+        };
+        let row: Vec<usize> = m.rows[row]
+            .iter()
+            .map(|&c| c as usize)
+            .filter(|&c| !drop[c])
+            .collect();
+        let mut cols = row;
+        cols.sort_by_key(|&c| (reduced[c], m.cost[c]));
+        let mut excluded = drop;
+        for &c in &cols {
+            let child = m.choose(&col_rows, c, &excluded);
+            path.push(m.id[c]);
+            self.branch(child, cost + m.cost[c], path, best);
+            path.pop();
             if self.exhausted {
                 return;
             }
+            // Later branches exclude the columns already tried.
+            excluded[c] = true;
         }
     }
 }
 
-/// For each live owner (row or column), its live entries; empty for the dead.
-fn live_lists(lists: &[Vec<u32>], owner_alive: &[bool], entry_alive: &[bool]) -> Vec<Vec<u32>> {
-    lists
-        .iter()
-        .zip(owner_alive)
-        .map(|(list, &alive)| {
-            if !alive {
-                return Vec::new();
+/// The bound (whole units of cost) after adding a reduced cost in 1/SCALE units.
+fn bound_of(bound: u64, reduced: i64) -> u64 {
+    bound.saturating_add((reduced / SCALE) as u64)
+}
+
+/// A cover by repeatedly taking the column covering the most uncovered
+/// rows per cost, then dropping columns the others make redundant.
+fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32>) {
+    // The price of a column: its cost, or its reduced cost (at least a
+    // small share of its cost, so that every price is positive).
+    let price: Vec<f64> = match reduced {
+        None => m.cost.iter().map(|&c| c as f64).collect(),
+        Some(rc) => rc
+            .iter()
+            .zip(&m.cost)
+            .map(|(&r, &c)| (r as f64 / SCALE as f64).max(c as f64 * 1e-3))
+            .collect(),
+    };
+    let mut covered = vec![false; m.rows.len()];
+    let mut gain: Vec<usize> = col_rows.iter().map(<[u32]>::len).collect();
+    let mut times = vec![0u32; m.rows.len()];
+    let mut picked = Vec::new();
+    let mut left = m.rows.len();
+    while left > 0 {
+        let c = (0..gain.len())
+            .max_by(|&a, &b| {
+                let ga = gain[a] as f64 / price[a];
+                let gb = gain[b] as f64 / price[b];
+                ga.total_cmp(&gb).then(b.cmp(&a))
+            })
+            .expect("a feasible matrix has columns");
+        picked.push(c);
+        for &r in &col_rows[c] {
+            times[r as usize] += 1;
+            if !covered[r as usize] {
+                covered[r as usize] = true;
+                left -= 1;
+                for &d in &m.rows[r as usize] {
+                    gain[d as usize] -= 1;
+                }
             }
-            list.iter()
-                .copied()
-                .filter(|&e| entry_alive[e as usize])
-                .collect()
-        })
-        .collect()
+        }
+    }
+    // Most expensive first: drop a column when every row it covers is covered twice.
+    picked.sort_by_key(|&c| std::cmp::Reverse(m.cost[c]));
+    let mut keep = Vec::new();
+    for c in picked {
+        if col_rows[c].iter().all(|&r| times[r as usize] > 1) {
+            for &r in &col_rows[c] {
+                times[r as usize] -= 1;
+            }
+        } else {
+            keep.push(c);
+        }
+    }
+    let cost = keep.iter().map(|&c| m.cost[c]).sum();
+    (cost, keep.into_iter().map(|c| m.id[c]).collect())
 }
 
-/// Whether sorted `a` is a subset of sorted `b`.
-fn subset(a: &[u32], b: &[u32]) -> bool {
-    let mut j = 0;
-    for &x in a {
-        while j < b.len() && b[j] < x {
-            j += 1;
+/// A lower bound on the cost of any cover of `m`, by Lagrangian relaxation
+/// of the covering constraints: for multipliers `u >= 0` on the rows, every
+/// cover costs at least `sum(u) + sum over columns of min(0, cost - u of
+/// its rows)`. Subgradient steps move `u` (kept in `m.mult`) towards the
+/// best such bound, stopping early once it reaches `limit`. The first guess
+/// is an independent set of rows (no two share a column), each row's
+/// multiplier its cheapest column. Returns the bound and each column's
+/// reduced cost at the best multipliers, in 1/SCALE units.
+fn lagrange(m: &mut Matrix, col_rows: &Rows, limit: u64, steps: usize) -> (u64, Vec<i64>) {
+    let (rows, cols) = (m.rows.len(), m.cost.len());
+    let scaled: Vec<i64> = m.cost.iter().map(|&c| c as i64 * SCALE).collect();
+    let evaluate = |u: &[i64], reduced: &mut Vec<i64>| -> i64 {
+        reduced.clear();
+        reduced.extend(
+            col_rows
+                .iter()
+                .zip(&scaled)
+                .map(|(rs, &c)| c - rs.iter().map(|&r| u[r as usize]).sum::<i64>()),
+        );
+        u.iter().sum::<i64>() + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>()
+    };
+    // Whole units, rounded up: costs are integers.
+    let whole = |value: i64| -> u64 { (value.max(0) as u64).div_ceil(SCALE as u64) };
+    let mut independent = vec![0i64; rows];
+    {
+        let mut order: Vec<usize> = (0..rows).collect();
+        order.sort_by_key(|&r| m.rows[r].len());
+        let mut used = vec![false; cols];
+        for r in order {
+            if m.rows[r].iter().all(|&c| !used[c as usize]) {
+                for &c in &m.rows[r] {
+                    used[c as usize] = true;
+                }
+                independent[r] = m.rows[r]
+                    .iter()
+                    .map(|&c| scaled[c as usize])
+                    .min()
+                    .unwrap_or(0);
+            }
         }
-        if j == b.len() || b[j] != x {
-            return false;
-        }
-        j += 1;
     }
-    true
+    let mut reduced = Vec::with_capacity(cols);
+    let mut u = independent;
+    let mut best_value = evaluate(&u, &mut reduced);
+    let mut best_u = u.clone();
+    if m.mult.iter().any(|&x| x != 0) {
+        let warm = evaluate(&m.mult, &mut reduced);
+        if warm > best_value {
+            best_value = warm;
+            best_u = m.mult.clone();
+            u = m.mult.clone();
+        }
+    }
+    let target = if limit == u64::MAX {
+        None
+    } else {
+        Some(limit as f64 * SCALE as f64)
+    };
+    let mut lambda = 1.0f64;
+    let mut stall = 0;
+    let mut value = evaluate(&u, &mut reduced);
+    for _ in 0..steps {
+        if whole(best_value) >= limit {
+            break;
+        }
+        // Subgradient: 1 minus how often each row is covered by the columns
+        // of negative reduced cost.
+        let mut g = vec![1i64; rows];
+        for (c, rs) in col_rows.iter().enumerate() {
+            if reduced[c] < 0 {
+                for &r in rs {
+                    g[r as usize] -= 1;
+                }
+            }
+        }
+        let norm: i64 = g.iter().map(|x| x * x).sum();
+        if norm == 0 {
+            break;
+        }
+        let goal = target.unwrap_or(value as f64 * 1.05 + SCALE as f64);
+        let step = lambda * (goal - value as f64).max(SCALE as f64) / norm as f64;
+        for (x, &gr) in u.iter_mut().zip(&g) {
+            *x = (*x + (step * gr as f64).round() as i64).max(0);
+        }
+        value = evaluate(&u, &mut reduced);
+        if value > best_value {
+            best_value = value;
+            best_u.clone_from(&u);
+            stall = 0;
+        } else {
+            stall += 1;
+            if stall >= 5 {
+                lambda /= 2.0;
+                stall = 0;
+                if lambda < 1e-3 {
+                    break;
+                }
+            }
+        }
+    }
+    let value = evaluate(&best_u, &mut reduced);
+    m.mult = best_u;
+    (whole(value), reduced)
 }

@@ -256,23 +256,116 @@ fn product_of_sums_by_the_complement() {
 fn a_cyclic_core_without_search_budget_is_not_claimed_minimal() {
     // f(A,B,C) = Σm(0, 1, 2, 5, 6, 7): every minterm is covered by two primes
     // and none is essential (a cyclic prime table; common textbook example).
+    // Its bound (six minterms, at most two per prime) proves 3 terms even
+    // without search.
     let on = TruthTable::from_minterms(3, &[0, 1, 2, 5, 6, 7]);
     let none = TruthTable::zero(3);
+    let no_search = Budget {
+        max_nodes: 0,
+        ..Budget::default()
+    };
     let exact = minimize_sop(&on, &none, &Budget::default()).unwrap();
     assert_eq!((exact.cover.len(), exact.primes), (3, 6));
     assert!(exact.proven_minimal);
-    let limited = minimize_sop(
-        &on,
-        &none,
-        &Budget {
-            max_nodes: 0,
-            ..Budget::default()
-        },
-    )
-    .unwrap();
-    assert!(!limited.proven_minimal);
-    assert!(limited.lower_bound <= limited.cover.len());
+    let limited = minimize_sop(&on, &none, &no_search).unwrap();
     assert_eq!(limited.cover.truth_table(), on);
+    assert_eq!(limited.cover.len(), 3);
+    // Random 8-input functions whose bound alone proves nothing: without
+    // search their result is a cover, never claimed minimal, with a bound
+    // below the minimum the full search proves.
+    let mut x = 0x1234_5678_9ABC_DEF1u64;
+    let mut unproven = 0;
+    for _ in 0..20 {
+        let mut on = TruthTable::zero(8);
+        for m in 0..256usize {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            on.set(m, x % 2 == 1);
+        }
+        let limited = minimize_sop(&on, &TruthTable::zero(8), &no_search).unwrap();
+        assert_eq!(limited.cover.truth_table(), on);
+        assert!(limited.lower_bound <= limited.cover.len());
+        let exact = minimize_sop(&on, &TruthTable::zero(8), &Budget::default()).unwrap();
+        assert!(exact.proven_minimal);
+        assert!(limited.lower_bound <= exact.cover.len());
+        assert!(exact.cover.len() <= limited.cover.len());
+        if !limited.proven_minimal {
+            unproven += 1;
+        } else {
+            assert_eq!(limited.cover.len(), exact.cover.len());
+            assert_eq!(limited.cover.literals(), exact.cover.literals());
+        }
+    }
+    assert!(unproven > 0);
+}
+
+/// The least (terms, literals) cover, by a plain depth-first search over the
+/// primes of [`brute_primes`] covering the first uncovered minterm; a branch
+/// ends when even the largest prime could not cover the rest in time.
+fn reference_minimum(on: &TruthTable, dc: &TruthTable) -> (usize, usize) {
+    let vars = on.vars();
+    let mask = |t: &TruthTable| t.minterms().iter().fold(0u64, |acc, &m| acc | 1 << m);
+    let primes: Vec<(u64, usize)> = brute_primes(on, dc)
+        .iter()
+        .map(|c| (mask(&c.truth_table(vars)), c.literals(vars)))
+        .collect();
+    let need = mask(&on.and_not(dc));
+    let widest = primes.iter().map(|p| p.0.count_ones()).max().unwrap_or(1);
+    fn search(
+        primes: &[(u64, usize)],
+        widest: u32,
+        left: u64,
+        used: (usize, usize),
+        best: &mut (usize, usize),
+    ) {
+        if left == 0 {
+            *best = (*best).min(used);
+            return;
+        }
+        if used.0 + left.count_ones().div_ceil(widest) as usize > best.0 {
+            return;
+        }
+        let first = left.trailing_zeros();
+        for &(p, l) in primes.iter().filter(|p| p.0 >> first & 1 == 1) {
+            let next = (used.0 + 1, used.1 + l);
+            if next < *best {
+                search(primes, widest, left & !p, next, best);
+            }
+        }
+    }
+    let mut best = (usize::MAX, usize::MAX);
+    search(&primes, widest, need, (0, 0), &mut best);
+    if need == 0 { (0, 0) } else { best }
+}
+
+#[test]
+fn five_and_six_input_functions_match_a_plain_search() {
+    let mut x = 0xD1B5_4A32_D192_ED03u64;
+    for (vars, count) in [(5usize, 300), (6, 40)] {
+        for _ in 0..count {
+            let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+            for m in 0..(1usize << vars) {
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                match x % 8 {
+                    0..=3 => on.set(m, true),
+                    4 => dc.set(m, true),
+                    _ => {}
+                }
+            }
+            let r = minimize_sop(&on, &dc, &Budget::default()).unwrap();
+            assert!(r.proven_minimal);
+            let f = r.cover.truth_table();
+            assert!(f.covers(&on.and_not(&dc)) && on.or(&dc).covers(&f));
+            assert_eq!(
+                (r.cover.len(), r.cover.literals()),
+                reference_minimum(&on, &dc),
+                "{on:?} {dc:?}"
+            );
+        }
+    }
 }
 
 #[test]
