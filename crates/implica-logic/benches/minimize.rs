@@ -12,16 +12,19 @@ fn main() {
     // How often the default budget proves the result minimal (slow: set
     // IMPLICA_BENCH_SUMMARY=1 to print it).
     let summary = std::env::var_os("IMPLICA_BENCH_SUMMARY").is_some();
-    for vars in [8usize, 10].into_iter().filter(|_| summary) {
+    for vars in [8usize, 10, 12].into_iter().filter(|_| summary) {
         let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
-        let proven = functions
-            .iter()
-            .filter(|(on, dc)| {
-                minimize_sop(on, dc, &Budget::default()).is_ok_and(|r| r.proven_minimal)
-            })
-            .count();
+        let (mut proven, mut terms, mut bound) = (0, 0, 0);
+        for (on, dc) in &functions {
+            if let Ok(r) = minimize_sop(on, dc, &Budget::default()) {
+                proven += usize::from(r.proven_minimal);
+                terms += r.cover.len();
+                bound += r.lower_bound;
+            }
+        }
         println!(
-            "{vars} inputs: {proven} of {} random functions proven minimal",
+            "{vars} inputs: {proven} of {} random functions proven minimal; \
+             {terms} terms in all, lower bound {bound}",
             functions.len()
         );
     }
@@ -73,8 +76,7 @@ fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable, Tr
         .collect()
 }
 
-// 12 inputs comes back when the cover search is faster (docs/benchmarks.md).
-#[divan::bench(args = [8, 10], sample_count = 10)]
+#[divan::bench(args = [8, 10, 12], sample_count = 10)]
 fn random_with_dont_cares(bencher: Bencher, vars: usize) {
     let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
     let mut i = 0;

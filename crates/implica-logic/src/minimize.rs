@@ -412,25 +412,35 @@ fn solve_cover(rows: Vec<Vec<u32>>, literals: &[u64], vars: usize, budget: &Budg
 /// so that every bound is computed exactly.
 const SCALE: i64 = 256;
 
-/// Lists of column indices, one per row, stored end to end.
-#[derive(Clone, Default)]
+/// Lists of column indices, one per row, stored end to end: row `r` is
+/// `entries[start[r]..start[r + 1]]`.
+#[derive(Clone)]
 struct Rows {
     start: Vec<u32>,
     entries: Vec<u32>,
 }
 
+impl Default for Rows {
+    fn default() -> Rows {
+        Rows {
+            start: vec![0],
+            entries: Vec::new(),
+        }
+    }
+}
+
 impl Rows {
     fn len(&self) -> usize {
-        self.start.len()
+        self.start.len() - 1
     }
 
     fn is_empty(&self) -> bool {
-        self.start.is_empty()
+        self.len() == 0
     }
 
     fn push(&mut self, row: impl Iterator<Item = u32>) {
-        self.start.push(self.entries.len() as u32);
         self.entries.extend(row);
+        self.start.push(self.entries.len() as u32);
     }
 
     fn iter(&self) -> impl Iterator<Item = &[u32]> {
@@ -442,11 +452,7 @@ impl std::ops::Index<usize> for Rows {
     type Output = [u32];
 
     fn index(&self, r: usize) -> &[u32] {
-        let end = self
-            .start
-            .get(r + 1)
-            .map_or(self.entries.len(), |&e| e as usize);
-        &self.entries[self.start[r] as usize..end]
+        &self.entries[self.start[r] as usize..self.start[r + 1] as usize]
     }
 }
 
@@ -478,7 +484,6 @@ impl Matrix {
                 fill[c as usize] += 1;
             }
         }
-        start.pop();
         Rows { start, entries }
     }
 
@@ -576,38 +581,19 @@ impl Matrix {
     }
 }
 
-/// Whether every bit of `a` is in `b`.
-fn subset_bits(a: &[u64], b: &[u64]) -> bool {
-    a.iter().zip(b).all(|(x, y)| x & !y == 0)
-}
-
-/// Bit sets of `width` bits end to end, one per list, of its live entries.
-struct Bits {
-    words: usize,
-    bits: Vec<u64>,
-}
-
-impl Bits {
-    fn new<'a>(
-        lists: impl Iterator<Item = &'a [u32]>,
-        width: usize,
-        live: impl Fn(u32) -> bool,
-    ) -> Bits {
-        let words = width.div_ceil(64);
-        let mut bits = Vec::new();
-        for list in lists {
-            let at = bits.len();
-            bits.resize(at + words, 0u64);
-            for &e in list.iter().filter(|&&e| live(e)) {
-                bits[at + e as usize / 64] |= 1 << (e % 64);
-            }
+/// Whether the live entries of ascending `a` are all in ascending `b`.
+fn subset_live(a: &[u32], b: &[u32], live: impl Fn(u32) -> bool) -> bool {
+    let mut j = 0;
+    for &x in a.iter().filter(|&&x| live(x)) {
+        while j < b.len() && b[j] < x {
+            j += 1;
         }
-        Bits { words, bits }
+        if j == b.len() || b[j] != x {
+            return false;
+        }
+        j += 1;
     }
-
-    fn get(&self, i: usize) -> &[u64] {
-        &self.bits[i * self.words..(i + 1) * self.words]
-    }
+    true
 }
 
 /// Essential columns, row dominance and column dominance until nothing
@@ -644,7 +630,6 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
         // Row dominance: a row whose columns include all of another row's is
         // covered whenever that row is. Such a row holds the other row's
         // first column, so only that column's rows are candidates.
-        let row_bits = Bits::new(m.rows.iter(), cols, |_| true);
         for q in 0..rows {
             if !row_live[q] {
                 continue;
@@ -658,7 +643,7 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
                 let len_r = m.rows[r].len();
                 if len_r >= len_q
                     && (len_r > len_q || q < r)
-                    && subset_bits(row_bits.get(q), row_bits.get(r))
+                    && subset_live(&m.rows[q], &m.rows[r], |_| true)
                 {
                     row_live[r] = false;
                     changed = true;
@@ -668,15 +653,9 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
         // Column dominance: a column whose live rows another column of no
         // greater cost also covers is never needed. Such a column covers the
         // first of those rows, so only its columns are candidates.
-        let col_bits = Bits::new(col_rows.iter(), rows, |r| row_live[r as usize]);
-        let live_count: Vec<usize> = (0..cols)
-            .map(|c| {
-                col_bits
-                    .get(c)
-                    .iter()
-                    .map(|w| w.count_ones() as usize)
-                    .sum()
-            })
+        let live_count: Vec<usize> = col_rows
+            .iter()
+            .map(|rs| rs.iter().filter(|&&r| row_live[r as usize]).count())
             .collect();
         for a in 0..cols {
             let Some(&first) = col_rows[a].iter().find(|&&r| row_live[r as usize]) else {
@@ -692,7 +671,9 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
                 let (ca, cb) = (m.cost[a], m.cost[b]);
                 let (na, nb) = (live_count[a], live_count[b]);
                 let better = cb < ca || (cb == ca && (nb > na || b < a));
-                better && nb >= na && subset_bits(col_bits.get(a), col_bits.get(b))
+                better
+                    && nb >= na
+                    && subset_live(&col_rows[a], &col_rows[b], |r| row_live[r as usize])
             });
             if dominated {
                 col_live[a] = false;
@@ -726,6 +707,8 @@ struct Solver {
 /// Subgradient steps at the root of a component and at each node.
 const ROOT_STEPS: usize = 300;
 const NODE_STEPS: usize = 40;
+/// Subgradient steps between two covers built from the reduced costs.
+const PRIMAL_EVERY: usize = 10;
 
 impl Solver {
     /// The least-cost cover of `m` (a feasible matrix), each connected
@@ -755,14 +738,20 @@ impl Solver {
             let col_rows = component.col_rows();
             let mut best = greedy(&component, &col_rows, None);
             self.work += component.rows.entries.len() as u64 * (steps as u64 + 8);
-            let (bound, reduced) = lagrange(&mut component, &col_rows, best.0, steps);
-            if bound < best.0 {
-                // The reduced costs steer a second greedy cover.
-                let second = greedy(&component, &col_rows, Some(&reduced));
-                if second.0 < best.0 {
-                    best = second;
-                }
-            }
+            // The reduced costs steer greedy covers as the bound rises.
+            let (bound, _) = lagrange_with(
+                &mut component,
+                &col_rows,
+                best.0,
+                steps,
+                &mut |m: &Matrix, reduced: &[i64]| {
+                    let cover = greedy(m, &col_rows, Some(reduced));
+                    if cover.0 < best.0 {
+                        best = cover;
+                    }
+                    best.0
+                },
+            );
             if bound < best.0 {
                 self.branch(component, 0, &mut Vec::new(), &mut best);
             }
@@ -897,14 +886,25 @@ fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32
     let mut times = vec![0u32; m.rows.len()];
     let mut picked = Vec::new();
     let mut left = m.rows.len();
+    // Gains only fall, so a column whose recomputed ratio still tops the
+    // heap is the best (lazy evaluation). Positive floats order as their bits.
+    let key = |c: usize, gain: usize| (gain as f64 / price[c]).to_bits();
+    let mut heap: std::collections::BinaryHeap<(u64, std::cmp::Reverse<usize>)> = (0..gain.len())
+        .filter(|&c| gain[c] > 0)
+        .map(|c| (key(c, gain[c]), std::cmp::Reverse(c)))
+        .collect();
     while left > 0 {
-        let c = (0..gain.len())
-            .max_by(|&a, &b| {
-                let ga = gain[a] as f64 / price[a];
-                let gb = gain[b] as f64 / price[b];
-                ga.total_cmp(&gb).then(b.cmp(&a))
-            })
-            .expect("a feasible matrix has columns");
+        let Some((k, std::cmp::Reverse(c))) = heap.pop() else {
+            break;
+        };
+        if gain[c] == 0 {
+            continue;
+        }
+        let now = key(c, gain[c]);
+        if now != k {
+            heap.push((now, std::cmp::Reverse(c)));
+            continue;
+        }
         picked.push(c);
         for &r in &col_rows[c] {
             times[r as usize] += 1;
@@ -942,16 +942,30 @@ fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32
 /// multiplier its cheapest column. Returns the bound and each column's
 /// reduced cost at the best multipliers, in 1/SCALE units.
 fn lagrange(m: &mut Matrix, col_rows: &Rows, limit: u64, steps: usize) -> (u64, Vec<i64>) {
+    lagrange_with(m, col_rows, limit, steps, &mut |_: &Matrix, _: &[i64]| {
+        limit
+    })
+}
+
+/// [`lagrange`], calling `primal` with the reduced costs every few steps;
+/// it returns the cost of the best cover known, which lowers the limit.
+fn lagrange_with(
+    m: &mut Matrix,
+    col_rows: &Rows,
+    mut limit: u64,
+    steps: usize,
+    primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
+) -> (u64, Vec<i64>) {
     let (rows, cols) = (m.rows.len(), m.cost.len());
     let scaled: Vec<i64> = m.cost.iter().map(|&c| c as i64 * SCALE).collect();
     let evaluate = |u: &[i64], reduced: &mut Vec<i64>| -> i64 {
         reduced.clear();
-        reduced.extend(
-            col_rows
+        reduced.extend(col_rows.start.windows(2).zip(&scaled).map(|(w, &c)| {
+            c - col_rows.entries[w[0] as usize..w[1] as usize]
                 .iter()
-                .zip(&scaled)
-                .map(|(rs, &c)| c - rs.iter().map(|&r| u[r as usize]).sum::<i64>()),
-        );
+                .map(|&r| u[r as usize])
+                .sum::<i64>()
+        }));
         u.iter().sum::<i64>() + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>()
     };
     // Whole units, rounded up: costs are integers.
@@ -994,13 +1008,18 @@ fn lagrange(m: &mut Matrix, col_rows: &Rows, limit: u64, steps: usize) -> (u64, 
     let mut lambda = 1.0f64;
     let mut stall = 0;
     let mut value = evaluate(&u, &mut reduced);
-    for _ in 0..steps {
+    let mut g: Vec<i64> = Vec::with_capacity(rows);
+    for step_index in 0..steps {
+        if step_index % PRIMAL_EVERY == PRIMAL_EVERY - 1 {
+            limit = limit.min(primal(m, &reduced));
+        }
         if whole(best_value) >= limit {
             break;
         }
         // Subgradient: 1 minus how often each row is covered by the columns
         // of negative reduced cost.
-        let mut g = vec![1i64; rows];
+        g.clear();
+        g.resize(rows, 1);
         for (c, rs) in col_rows.iter().enumerate() {
             if reduced[c] < 0 {
                 for &r in rs {
@@ -1015,7 +1034,7 @@ fn lagrange(m: &mut Matrix, col_rows: &Rows, limit: u64, steps: usize) -> (u64, 
         let goal = target.unwrap_or(value as f64 * 1.05 + SCALE as f64);
         let step = lambda * (goal - value as f64).max(SCALE as f64) / norm as f64;
         for (x, &gr) in u.iter_mut().zip(&g) {
-            *x = (*x + (step * gr as f64).round() as i64).max(0);
+            *x = (*x + (step * gr as f64) as i64).max(0);
         }
         value = evaluate(&u, &mut reduced);
         if value > best_value {
