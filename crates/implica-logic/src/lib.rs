@@ -19,6 +19,7 @@ mod analysis;
 mod cube;
 mod expr;
 mod minimize;
+mod multi;
 mod truth_table;
 
 pub use analysis::{
@@ -27,4 +28,5 @@ pub use analysis::{
 pub use cube::{Cover, Cube};
 pub use expr::BoolExpr;
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
+pub use multi::{MAX_OUTPUTS, MultiMinimized, minimize_multi};
 pub use truth_table::{MAX_VARS, TruthTable};

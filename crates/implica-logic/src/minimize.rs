@@ -69,13 +69,13 @@ pub struct TooLarge {
 /// An implicant in minterm-index space: `value` with the bits of `free`
 /// eliminated (`value & free == 0`).
 #[derive(Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
-struct Implicant {
-    value: u32,
-    free: u32,
+pub(crate) struct Implicant {
+    pub(crate) value: u32,
+    pub(crate) free: u32,
 }
 
 impl Implicant {
-    fn to_cube(self, vars: usize) -> Cube {
+    pub(crate) fn to_cube(self, vars: usize) -> Cube {
         let mut c = Cube { zero: 0, one: 0 };
         for i in 0..vars {
             let bit = 1u32 << (vars - 1 - i);
@@ -92,7 +92,7 @@ impl Implicant {
     }
 
     /// Every minterm of the implicant.
-    fn minterms(self) -> impl Iterator<Item = usize> {
+    pub(crate) fn minterms(self) -> impl Iterator<Item = usize> {
         let free = self.free;
         let mut sub = 0u32;
         let mut done = false;
@@ -109,11 +109,17 @@ impl Implicant {
 }
 
 fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), TooLarge> {
-    assert_eq!(
-        on.vars(),
-        dc.vars(),
-        "on-set and don't-care set over different inputs"
-    );
+    if on.vars() != dc.vars() {
+        return Err(TooLarge {
+            reason: format!(
+                "on-set over {} inputs, don't-cares over {}",
+                on.vars(),
+                dc.vars()
+            ),
+            vars: on.vars(),
+            on_set: on.count_ones(),
+        });
+    }
     if on.vars() > budget.max_vars {
         return Err(TooLarge {
             reason: format!(
@@ -263,7 +269,7 @@ impl PrimeSearch<'_> {
     }
 }
 
-fn primes_of(
+pub(crate) fn primes_of(
     on: &TruthTable,
     dc: &TruthTable,
     budget: &Budget,
@@ -296,6 +302,30 @@ fn primes_of(
     Ok(primes)
 }
 
+/// Most entries of a covering matrix, bounded by the minterms of its
+/// columns (a gibibyte of row lists).
+pub(crate) const MAX_MATRIX: u64 = 1 << 28;
+
+/// Refuses a covering matrix whose columns hold more than [`MAX_MATRIX`] minterms.
+pub(crate) fn check_matrix(
+    primes: &[Implicant],
+    vars: usize,
+    on_set: usize,
+) -> Result<(), TooLarge> {
+    let entries: u64 = primes.iter().map(|p| 1u64 << p.free.count_ones()).sum();
+    if entries > MAX_MATRIX {
+        return Err(TooLarge {
+            reason: format!(
+                "a covering matrix of more than {MAX_MATRIX} entries ({} prime implicants)",
+                primes.len()
+            ),
+            vars,
+            on_set,
+        });
+    }
+    Ok(())
+}
+
 /// All prime implicants of the function that is 1 on `on`, free on `dc`,
 /// that cover at least one minterm of `on` outside `dc`.
 pub fn prime_implicants(
@@ -321,6 +351,7 @@ pub fn minimize_sop(
     let vars = on.vars();
     let primes = primes_of(on, dc, budget)?;
     let required = on.and_not(dc).minterms();
+    check_matrix(&primes, vars, required.len())?;
     let mut row_of = vec![u32::MAX; 1usize << vars];
     for (r, &m) in required.iter().enumerate() {
         row_of[m] = r as u32;
@@ -364,6 +395,7 @@ pub fn minimize_pos(
     dc: &TruthTable,
     budget: &Budget,
 ) -> Result<Minimized, TooLarge> {
+    check_size(on, dc, budget)?;
     let off = !&on.or(dc);
     minimize_sop(&off, dc, budget)
 }
@@ -372,13 +404,18 @@ pub fn minimize_pos(
 /// cost. Rows list their columns; a column of `literals[c]` literals costs
 /// `term + literals[c]`, where `term` exceeds the literals of any cover, so
 /// that fewer terms always win.
-struct Solution {
-    columns: Vec<usize>,
-    proven: bool,
-    lower_bound_terms: usize,
+pub(crate) struct Solution {
+    pub(crate) columns: Vec<usize>,
+    pub(crate) proven: bool,
+    pub(crate) lower_bound_terms: usize,
 }
 
-fn solve_cover(rows: Vec<Vec<u32>>, literals: &[u64], vars: usize, budget: &Budget) -> Solution {
+pub(crate) fn solve_cover(
+    rows: Vec<Vec<u32>>,
+    literals: &[u64],
+    vars: usize,
+    budget: &Budget,
+) -> Solution {
     // A search never picks more columns than there are rows.
     let term = (rows.len() as u64) * (vars as u64) + 1;
     let mut packed = Rows::default();

@@ -473,3 +473,19 @@ fn prime_budget_counts_primes() {
         err.reason
     );
 }
+
+#[test]
+fn on_set_and_dont_cares_over_different_inputs_is_a_clear_outcome() {
+    let (on, dc) = (TruthTable::var(3, 0), TruthTable::zero(4));
+    for r in [
+        minimize_sop(&on, &dc, &Budget::default()),
+        minimize_pos(&on, &dc, &Budget::default()),
+    ] {
+        let err = r.unwrap_err();
+        assert!(
+            err.reason.contains("3 inputs") && err.reason.contains("4"),
+            "{}",
+            err.reason
+        );
+    }
+}
