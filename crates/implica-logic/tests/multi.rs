@@ -199,3 +199,28 @@ fn clear_outcomes_for_odd_requests() {
         (2, 4, 2)
     );
 }
+
+#[test]
+fn kiosk_digit_display_shares_terms() {
+    // A 4-bit digit drives seven segments; codes 10 to 15 never occur (the
+    // segment patterns of decimal digits are common practice; six and nine
+    // drawn with their tails).
+    const SEGMENTS: [u8; 10] = [
+        0b111_1110, 0b011_0000, 0b110_1101, 0b111_1001, 0b011_0011, 0b101_1011, 0b101_1111,
+        0b111_0000, 0b111_1111, 0b111_1011,
+    ];
+    let unused = TruthTable::from_minterms(4, &[10, 11, 12, 13, 14, 15]);
+    let outputs: Vec<(TruthTable, TruthTable)> = (0..7)
+        .map(|s| {
+            let lit: Vec<usize> = (0..10)
+                .filter(|&d| SEGMENTS[d] >> (6 - s) & 1 == 1)
+                .collect();
+            (TruthTable::from_minterms(4, &lit), unused.clone())
+        })
+        .collect();
+    let r = minimize_multi(&outputs, &Budget::default()).unwrap();
+    check_outputs(&outputs, &r);
+    assert!(r.proven_minimal);
+    assert!(!r.shared().is_empty());
+    assert!(r.terms.len() < r.separate_terms);
+}
