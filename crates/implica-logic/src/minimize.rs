@@ -429,6 +429,7 @@ pub(crate) fn solve_cover(
         id: (0..literals.len() as u32).collect(),
     };
     let mut solver = Solver {
+        term,
         nodes: 0,
         max_nodes: budget.max_nodes,
         work: 0,
@@ -568,7 +569,8 @@ impl Matrix {
     }
 
     /// The connected components (rows linked by shared columns), each as
-    /// its own matrix; a cover of the whole is a cover of each.
+    /// its own matrix; a cover of the whole is a cover of each. Empty when
+    /// the matrix is connected.
     fn components(&self) -> Vec<Matrix> {
         let cols = self.cost.len();
         let mut parent: Vec<u32> = (0..cols as u32).collect();
@@ -599,7 +601,7 @@ impl Matrix {
             }
         }
         if groups <= 1 {
-            return vec![self.clone()];
+            return Vec::new();
         }
         (0..groups)
             .map(|g| {
@@ -734,6 +736,8 @@ struct Part {
 }
 
 struct Solver {
+    /// The cost of a term, beside its literals.
+    term: u64,
     nodes: u64,
     max_nodes: u64,
     work: u64,
@@ -771,14 +775,19 @@ impl Solver {
         if m.rows.is_empty() {
             return part;
         }
-        for mut component in m.components() {
+        let mut components = m.components();
+        if components.is_empty() {
+            components.push(m);
+        }
+        for mut component in components {
             let col_rows = component.col_rows();
             let mut best = greedy(&component, &col_rows, None);
             self.work += component.rows.entries.len() as u64 * (steps as u64 + 8);
             // The reduced costs steer greedy covers as the bound rises.
-            let (bound, _) = lagrange_with(
+            let bound = lagrange(
                 &mut component,
                 &col_rows,
+                self.term,
                 best.0,
                 steps,
                 &mut |m: &Matrix, reduced: &[i64]| {
@@ -789,6 +798,7 @@ impl Solver {
                     best.0
                 },
             );
+            let bound = bound.cost;
             if bound < best.0 {
                 self.branch(component, 0, &mut Vec::new(), &mut best);
             }
@@ -836,14 +846,21 @@ impl Solver {
             return;
         }
         let components = m.components();
-        if components.len() > 1 {
+        if !components.is_empty() {
             // Components are independent: bound each, then solve each.
             let mut bound = cost;
             let mut parts = Vec::with_capacity(components.len());
             for mut c in components {
                 let col_rows = c.col_rows();
-                let (b, _) = lagrange(&mut c, &col_rows, u64::MAX, NODE_STEPS);
-                bound = bound.saturating_add(b);
+                let b = lagrange(
+                    &mut c,
+                    &col_rows,
+                    self.term,
+                    u64::MAX,
+                    NODE_STEPS,
+                    &mut |_, _| u64::MAX,
+                );
+                bound = bound.saturating_add(b.cost);
                 parts.push(c);
             }
             if bound >= best.0 {
@@ -863,15 +880,21 @@ impl Solver {
         }
         let col_rows = m.col_rows();
         let room = best.0 - cost;
-        let (bound, reduced) = lagrange(&mut m, &col_rows, room, NODE_STEPS);
-        if bound >= room {
+        let bound = lagrange(
+            &mut m,
+            &col_rows,
+            self.term,
+            room,
+            NODE_STEPS,
+            &mut |_, _| room,
+        );
+        if bound.cost >= room {
             return;
         }
         // A column whose reduced cost lifts the bound to the best cover's
         // cost is in no better cover.
-        let drop: Vec<bool> = reduced
-            .iter()
-            .map(|&rc| rc > 0 && bound_of(bound, rc) >= room)
+        let drop: Vec<bool> = (0..m.cost.len())
+            .map(|c| bound.excludes(c, m.cost[c].saturating_sub(self.term), self.term, room))
             .collect();
         let Some(row) = (0..m.rows.len())
             .min_by_key(|&r| m.rows[r].iter().filter(|&&c| !drop[c as usize]).count())
@@ -884,7 +907,7 @@ impl Solver {
             .filter(|&c| !drop[c])
             .collect();
         let mut cols = row;
-        cols.sort_by_key(|&c| (reduced[c], m.cost[c]));
+        cols.sort_by_key(|&c| (bound.reduced[c], m.cost[c]));
         let mut excluded = drop;
         for &c in &cols {
             let child = m.choose(&col_rows, c, &excluded);
@@ -898,11 +921,6 @@ impl Solver {
             excluded[c] = true;
         }
     }
-}
-
-/// The bound (whole units of cost) after adding a reduced cost in 1/SCALE units.
-fn bound_of(bound: u64, reduced: i64) -> u64 {
-    bound.saturating_add((reduced / SCALE) as u64)
 }
 
 /// A cover by repeatedly taking the column covering the most uncovered
@@ -970,32 +988,71 @@ fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32
     (cost, keep.into_iter().map(|c| m.id[c]).collect())
 }
 
+/// A lower bound on the cost of a cover, with what it was computed from.
+struct Bound {
+    /// Whole units of cost.
+    cost: u64,
+    /// The Lagrangian value with the true costs, in 1/SCALE units.
+    weighted: i64,
+    /// The Lagrangian value with every column costing one term, in
+    /// 1/SCALE units of a term's cost.
+    unit: i64,
+    /// Each column's reduced cost (true costs), in 1/SCALE units.
+    reduced: Vec<i64>,
+}
+
+impl Bound {
+    /// Whether every cover holding column `c`, whose literals cost `literals`,
+    /// costs at least `room` more.
+    fn excludes(&self, c: usize, literals: u64, term: u64, room: u64) -> bool {
+        let rc = self.reduced[c];
+        if rc > 0
+            && (self.weighted.max(0) as u64)
+                .div_ceil(SCALE as u64)
+                .saturating_add((rc / SCALE) as u64)
+                >= room
+        {
+            return true;
+        }
+        let unit_rc = rc - SCALE * literals as i64;
+        unit_rc > 0
+            && ((self.unit + unit_rc).max(0) as u64)
+                .div_ceil(SCALE as u64 * term)
+                .saturating_mul(term)
+                >= room
+    }
+}
+
 /// A lower bound on the cost of any cover of `m`, by Lagrangian relaxation
 /// of the covering constraints: for multipliers `u >= 0` on the rows, every
 /// cover costs at least `sum(u) + sum over columns of min(0, cost - u of
-/// its rows)`. Subgradient steps move `u` (kept in `m.mult`) towards the
-/// best such bound, stopping early once it reaches `limit`. The first guess
-/// is an independent set of rows (no two share a column), each row's
-/// multiplier its cheapest column. Returns the bound and each column's
-/// reduced cost at the best multipliers, in 1/SCALE units.
-fn lagrange(m: &mut Matrix, col_rows: &Rows, limit: u64, steps: usize) -> (u64, Vec<i64>) {
-    lagrange_with(m, col_rows, limit, steps, &mut |_: &Matrix, _: &[i64]| {
-        limit
-    })
-}
-
-/// [`lagrange`], calling `primal` with the reduced costs every few steps;
-/// it returns the cost of the best cover known, which lowers the limit.
-fn lagrange_with(
+/// its rows)`. The same multipliers against a cost of one term per column
+/// bound the number of terms, which is an integer: rounded up, times the
+/// cost of a term, that often bounds the cost better. Subgradient steps move
+/// `u` (kept in `m.mult`) towards the best bound, stopping early once it
+/// reaches `limit`; every few steps `primal` gets the reduced costs and
+/// returns the cost of the best cover known, which lowers the limit. The
+/// first guess is an independent set of rows (no two share a column), each
+/// row's multiplier its cheapest column.
+fn lagrange(
     m: &mut Matrix,
     col_rows: &Rows,
+    term: u64,
     mut limit: u64,
     steps: usize,
     primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
-) -> (u64, Vec<i64>) {
+) -> Bound {
     let (rows, cols) = (m.rows.len(), m.cost.len());
     let scaled: Vec<i64> = m.cost.iter().map(|&c| c as i64 * SCALE).collect();
-    let evaluate = |u: &[i64], reduced: &mut Vec<i64>| -> i64 {
+    let literal_part: Vec<i64> = m
+        .cost
+        .iter()
+        .map(|&c| c.saturating_sub(term) as i64 * SCALE)
+        .collect();
+    let unit = SCALE as u64 * term;
+    // Whole units, rounded up: costs are integers.
+    let whole = |value: i64| -> u64 { (value.max(0) as u64).div_ceil(SCALE as u64) };
+    let evaluate = |u: &[i64], reduced: &mut Vec<i64>| -> (u64, i64, i64) {
         reduced.clear();
         reduced.extend(col_rows.start.windows(2).zip(&scaled).map(|(w, &c)| {
             c - col_rows.entries[w[0] as usize..w[1] as usize]
@@ -1003,10 +1060,21 @@ fn lagrange_with(
                 .map(|&r| u[r as usize])
                 .sum::<i64>()
         }));
-        u.iter().sum::<i64>() + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>()
+        let total: i64 = u.iter().sum();
+        let weighted = total + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>();
+        let unit_value = total
+            + reduced
+                .iter()
+                .zip(&literal_part)
+                .map(|(&rc, &l)| (rc - l).min(0))
+                .sum::<i64>();
+        let terms = (unit_value.max(0) as u64).div_ceil(unit);
+        (
+            whole(weighted).max(terms.saturating_mul(term)),
+            weighted,
+            unit_value,
+        )
     };
-    // Whole units, rounded up: costs are integers.
-    let whole = |value: i64| -> u64 { (value.max(0) as u64).div_ceil(SCALE as u64) };
     let mut independent = vec![0i64; rows];
     {
         let mut order: Vec<usize> = (0..rows).collect();
@@ -1027,12 +1095,12 @@ fn lagrange_with(
     }
     let mut reduced = Vec::with_capacity(cols);
     let mut u = independent;
-    let mut best_value = evaluate(&u, &mut reduced);
+    let mut best = evaluate(&u, &mut reduced);
     let mut best_u = u.clone();
     if m.mult.iter().any(|&x| x != 0) {
         let warm = evaluate(&m.mult, &mut reduced);
-        if warm > best_value {
-            best_value = warm;
+        if (warm.0, warm.1) > (best.0, best.1) {
+            best = warm;
             best_u = m.mult.clone();
             u = m.mult.clone();
         }
@@ -1044,13 +1112,14 @@ fn lagrange_with(
     };
     let mut lambda = 1.0f64;
     let mut stall = 0;
-    let mut value = evaluate(&u, &mut reduced);
+    let mut value = evaluate(&u, &mut reduced).1;
+    let mut best_weighted = best.1;
     let mut g: Vec<i64> = Vec::with_capacity(rows);
     for step_index in 0..steps {
         if step_index % PRIMAL_EVERY == PRIMAL_EVERY - 1 {
             limit = limit.min(primal(m, &reduced));
         }
-        if whole(best_value) >= limit {
+        if best.0 >= limit {
             break;
         }
         // Subgradient: 1 minus how often each row is covered by the columns
@@ -1073,10 +1142,15 @@ fn lagrange_with(
         for (x, &gr) in u.iter_mut().zip(&g) {
             *x = (*x + (step * gr as f64) as i64).max(0);
         }
-        value = evaluate(&u, &mut reduced);
-        if value > best_value {
-            best_value = value;
+        let now = evaluate(&u, &mut reduced);
+        let improved = now.1 > best_weighted;
+        best_weighted = best_weighted.max(now.1);
+        value = now.1;
+        if (now.0, now.1) > (best.0, best.1) {
+            best = now;
             best_u.clone_from(&u);
+        }
+        if improved {
             stall = 0;
         } else {
             stall += 1;
@@ -1089,7 +1163,12 @@ fn lagrange_with(
             }
         }
     }
-    let value = evaluate(&best_u, &mut reduced);
+    let (cost, weighted, unit_value) = evaluate(&best_u, &mut reduced);
     m.mult = best_u;
-    (whole(value), reduced)
+    Bound {
+        cost,
+        weighted,
+        unit: unit_value,
+        reduced,
+    }
 }

@@ -489,3 +489,13 @@ fn on_set_and_dont_cares_over_different_inputs_is_a_clear_outcome() {
         );
     }
 }
+
+#[test]
+fn functions_of_no_inputs() {
+    let (one, zero) = (TruthTable::one(0), TruthTable::zero(0));
+    let r = minimize_sop(&one, &zero, &Budget::default()).unwrap();
+    assert_eq!((r.cover.len(), r.cover.literals(), r.primes), (1, 0, 1));
+    assert!(r.proven_minimal);
+    let r = minimize_sop(&zero, &one, &Budget::default()).unwrap();
+    assert!(r.cover.is_empty() && r.proven_minimal);
+}
