@@ -896,30 +896,25 @@ impl Solver {
         let drop: Vec<bool> = (0..m.cost.len())
             .map(|c| bound.excludes(c, m.cost[c].saturating_sub(self.term), self.term, room))
             .collect();
-        let Some(row) = (0..m.rows.len())
-            .min_by_key(|&r| m.rows[r].iter().filter(|&&c| !drop[c as usize]).count())
+        // Branch on the column the multipliers favour most: first with it,
+        // then without it.
+        let Some(c) = (0..m.cost.len())
+            .filter(|&c| !drop[c])
+            .min_by_key(|&c| (bound.reduced[c], m.cost[c]))
         else {
             return;
         };
-        let row: Vec<usize> = m.rows[row]
-            .iter()
-            .map(|&c| c as usize)
-            .filter(|&c| !drop[c])
-            .collect();
-        let mut cols = row;
-        cols.sort_by_key(|&c| (bound.reduced[c], m.cost[c]));
-        let mut excluded = drop;
-        for &c in &cols {
-            let child = m.choose(&col_rows, c, &excluded);
-            path.push(m.id[c]);
-            self.branch(child, cost + m.cost[c], path, best);
-            path.pop();
-            if self.exhausted {
-                return;
-            }
-            // Later branches exclude the columns already tried.
-            excluded[c] = true;
+        let child = m.choose(&col_rows, c, &drop);
+        path.push(m.id[c]);
+        self.branch(child, cost + m.cost[c], path, best);
+        path.pop();
+        if self.exhausted {
+            return;
         }
+        let mut live: Vec<bool> = drop.iter().map(|d| !d).collect();
+        live[c] = false;
+        let child = m.restrict(&vec![true; m.rows.len()], &live);
+        self.branch(child, cost, path, best);
     }
 }
 
