@@ -813,37 +813,51 @@ impl Solver {
 
     /// Branch and bound below a node whose chosen columns (`path`) cost
     /// `cost`; `best` is the least-cost cover found so far.
-    fn branch(&mut self, m: Matrix, cost: u64, path: &mut Vec<u32>, best: &mut (u64, Vec<u32>)) {
-        self.nodes += 1;
-        // Reduction and the bound visit the matrix about this often.
-        self.work += m.rows.entries.len() as u64 * (NODE_STEPS as u64 + 8);
-        if self.nodes > self.max_nodes || self.work > self.max_work {
-            self.exhausted = true;
-            return;
-        }
+    /// The branch without a column is searched in the same frame (the loop),
+    /// so the recursion is only as deep as the columns chosen, each covering
+    /// a row more.
+    fn branch(
+        &mut self,
+        mut m: Matrix,
+        mut cost: u64,
+        path: &mut Vec<u32>,
+        best: &mut (u64, Vec<u32>),
+    ) {
         let depth = path.len();
-        let mut cost = cost;
-        let Some(m) = reduce(m, path, &mut cost) else {
-            path.truncate(depth);
-            return;
-        };
-        self.branch_reduced(m, cost, path, best);
+        loop {
+            self.nodes += 1;
+            // Reduction and the bound visit the matrix about this often.
+            self.work += m.rows.entries.len() as u64 * (NODE_STEPS as u64 + 8);
+            if self.nodes > self.max_nodes || self.work > self.max_work {
+                self.exhausted = true;
+                break;
+            }
+            let Some(reduced) = reduce(m, path, &mut cost) else {
+                break;
+            };
+            match self.branch_reduced(reduced, cost, path, best) {
+                Some(next) => m = next,
+                None => break,
+            }
+        }
         path.truncate(depth);
     }
 
+    /// Searches below a reduced node; returns the node without its branching
+    /// column when that is still to be searched.
     fn branch_reduced(
         &mut self,
         mut m: Matrix,
         cost: u64,
         path: &mut Vec<u32>,
         best: &mut (u64, Vec<u32>),
-    ) {
+    ) -> Option<Matrix> {
         if cost >= best.0 {
-            return;
+            return None;
         }
         if m.rows.is_empty() {
             *best = (cost, path.clone());
-            return;
+            return None;
         }
         let components = m.components();
         if !components.is_empty() {
@@ -864,7 +878,7 @@ impl Solver {
                 parts.push(c);
             }
             if bound >= best.0 {
-                return;
+                return None;
             }
             let mut total = cost;
             let mut columns = path.clone();
@@ -876,7 +890,7 @@ impl Solver {
             if total < best.0 {
                 *best = (total, columns);
             }
-            return;
+            return None;
         }
         let col_rows = m.col_rows();
         let room = best.0 - cost;
@@ -889,7 +903,7 @@ impl Solver {
             &mut |_, _| room,
         );
         if bound.cost >= room {
-            return;
+            return None;
         }
         // A column whose reduced cost lifts the bound to the best cover's
         // cost is in no better cover.
@@ -902,19 +916,18 @@ impl Solver {
             .filter(|&c| !drop[c])
             .min_by_key(|&c| (bound.reduced[c], m.cost[c]))
         else {
-            return;
+            return None;
         };
         let child = m.choose(&col_rows, c, &drop);
         path.push(m.id[c]);
         self.branch(child, cost + m.cost[c], path, best);
         path.pop();
         if self.exhausted {
-            return;
+            return None;
         }
         let mut live: Vec<bool> = drop.iter().map(|d| !d).collect();
         live[c] = false;
-        let child = m.restrict(&vec![true; m.rows.len()], &live);
-        self.branch(child, cost, path, best);
+        Some(m.restrict(&vec![true; m.rows.len()], &live))
     }
 }
 
