@@ -912,12 +912,9 @@ impl Solver {
             .collect();
         // Branch on the column the multipliers favour most: first with it,
         // then without it.
-        let Some(c) = (0..m.cost.len())
+        let c = (0..m.cost.len())
             .filter(|&c| !drop[c])
-            .min_by_key(|&c| (bound.reduced[c], m.cost[c]))
-        else {
-            return None;
-        };
+            .min_by_key(|&c| (bound.reduced[c], m.cost[c]))?;
         let child = m.choose(&col_rows, c, &drop);
         path.push(m.id[c]);
         self.branch(child, cost + m.cost[c], path, best);
