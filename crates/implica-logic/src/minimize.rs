@@ -905,6 +905,17 @@ impl Solver {
         if bound.cost >= room {
             return None;
         }
+        // A cover completed greedily from here, by the reduced costs.
+        let (extra, columns) = greedy(&m, &col_rows, Some(&bound.reduced));
+        if cost.saturating_add(extra) < best.0 {
+            let mut cover = path.clone();
+            cover.extend(columns);
+            *best = (cost + extra, cover);
+        }
+        let room = best.0 - cost;
+        if bound.cost >= room {
+            return None;
+        }
         // A column whose reduced cost lifts the bound to the best cover's
         // cost is in no better cover.
         let drop: Vec<bool> = (0..m.cost.len())
