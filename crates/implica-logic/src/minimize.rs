@@ -800,6 +800,12 @@ impl Solver {
             );
             let bound = bound.cost;
             if bound < best.0 {
+                let better = swap_down(&component, &col_rows, &best.1);
+                if better.0 < best.0 {
+                    best = better;
+                }
+            }
+            if bound < best.0 {
                 self.branch(component, 0, &mut Vec::new(), &mut best);
             }
             let proven = bound >= best.0 || !self.exhausted;
@@ -1000,6 +1006,113 @@ fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32
             keep.push(c);
         }
     }
+    let cost = keep.iter().map(|&c| m.cost[c]).sum();
+    (cost, keep.into_iter().map(|c| m.id[c]).collect())
+}
+
+/// Local improvement of a cover (of column ids): a column outside it that holds every row that only chosen
+/// columns `S` cover alone replaces them all when that saves a term (two or
+/// more) or a literal (one, dearer), provided the other rows of `S` stay
+/// covered.
+fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
+    let cols = m.cost.len();
+    let mut chosen = vec![false; cols];
+    let mut times = vec![0u32; m.rows.len()];
+    // Columns are numbered in the order of their ids.
+    for c in cover.iter().filter_map(|id| m.id.binary_search(id).ok()) {
+        chosen[c] = true;
+        for &r in &col_rows[c] {
+            times[r as usize] += 1;
+        }
+    }
+    let mut stamp = vec![usize::MAX; cols];
+    let mut hits = vec![0u32; cols];
+    let mut in_d = vec![usize::MAX; m.rows.len()];
+    for _ in 0..4 {
+        let mut changed = false;
+        for d in 0..cols {
+            if chosen[d] {
+                continue;
+            }
+            let mut candidates = Vec::new();
+            for &r in &col_rows[d] {
+                in_d[r as usize] = d;
+                if times[r as usize] != 1 {
+                    continue;
+                }
+                for &c in &m.rows[r as usize] {
+                    let c = c as usize;
+                    if chosen[c] {
+                        if stamp[c] != d {
+                            stamp[c] = d;
+                            hits[c] = 0;
+                            candidates.push(c);
+                        }
+                        hits[c] += 1;
+                    }
+                }
+            }
+            let replaced: Vec<usize> = candidates
+                .into_iter()
+                .filter(|&c| {
+                    let alone = col_rows[c]
+                        .iter()
+                        .filter(|&&r| times[r as usize] == 1)
+                        .count();
+                    alone as u32 == hits[c]
+                })
+                .collect();
+            let saves = match replaced.as_slice() {
+                [] => false,
+                [c] => m.cost[d] < m.cost[*c],
+                _ => true,
+            };
+            if !saves {
+                continue;
+            }
+            // Rows of the replaced columns outside `d` must keep a cover.
+            let mut rows_out = Vec::new();
+            for &c in &replaced {
+                for &r in &col_rows[c] {
+                    if in_d[r as usize] != d {
+                        rows_out.push(r as usize);
+                    }
+                }
+            }
+            rows_out.sort_unstable();
+            let mut ok = true;
+            let mut i = 0;
+            while i < rows_out.len() {
+                let j = rows_out[i..]
+                    .iter()
+                    .take_while(|&&r| r == rows_out[i])
+                    .count();
+                if times[rows_out[i]] as usize <= j {
+                    ok = false;
+                    break;
+                }
+                i += j;
+            }
+            if !ok {
+                continue;
+            }
+            for &c in &replaced {
+                chosen[c] = false;
+                for &r in &col_rows[c] {
+                    times[r as usize] -= 1;
+                }
+            }
+            chosen[d] = true;
+            for &r in &col_rows[d] {
+                times[r as usize] += 1;
+            }
+            changed = true;
+        }
+        if !changed {
+            break;
+        }
+    }
+    let keep: Vec<usize> = (0..cols).filter(|&c| chosen[c]).collect();
     let cost = keep.iter().map(|&c| m.cost[c]).sum();
     (cost, keep.into_iter().map(|c| m.id[c]).collect())
 }

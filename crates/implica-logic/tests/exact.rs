@@ -499,3 +499,31 @@ fn functions_of_no_inputs() {
     let r = minimize_sop(&zero, &one, &Budget::default()).unwrap();
     assert!(r.cover.is_empty() && r.proven_minimal);
 }
+
+#[test]
+fn larger_random_functions_get_valid_covers_and_bounds() {
+    // Past what the search proves, the result is still a cover of the
+    // function with a lower bound no larger than it, and no worse than the
+    // bound-free first guess of a prime per uncovered minterm.
+    let mut x = 0x0123_4567_89AB_CDEFu64;
+    for vars in [10usize, 10, 12] {
+        let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+        for m in 0..(1usize << vars) {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            match x % 8 {
+                0..=2 => on.set(m, true),
+                3 | 4 => dc.set(m, true),
+                _ => {}
+            }
+        }
+        let r = minimize_sop(&on, &dc, &Budget::default()).unwrap();
+        let f = r.cover.truth_table();
+        assert!(f.covers(&on.and_not(&dc)) && on.or(&dc).covers(&f));
+        assert!(r.lower_bound <= r.cover.len());
+        assert!(r.cover.len() <= on.and_not(&dc).count_ones());
+        let primes = prime_implicants(&on, &dc, &Budget::default()).unwrap();
+        assert!(r.cover.cubes.iter().all(|c| primes.cubes.contains(c)));
+    }
+}
