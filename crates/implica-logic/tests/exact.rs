@@ -503,8 +503,8 @@ fn functions_of_no_inputs() {
 #[test]
 fn larger_random_functions_get_valid_covers_and_bounds() {
     // Past what the search proves, the result is still a cover of the
-    // function with a lower bound no larger than it, and no worse than the
-    // bound-free first guess of a prime per uncovered minterm.
+    // function by prime implicants, no larger than one term per required
+    // minterm, with a lower bound no larger than it.
     let mut x = 0x0123_4567_89AB_CDEFu64;
     for vars in [10usize, 10, 12] {
         let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
