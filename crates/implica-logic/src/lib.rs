@@ -1,5 +1,6 @@
 //! The Boolean engine of Implica: bit-parallel truth tables, cubes, and exact
-//! two-level minimization with don't-cares.
+//! two-level minimization with don't-cares, of one output or of several
+//! sharing product terms.
 //!
 //! ```
 //! use implica_logic::{TruthTable, minimize_sop, Budget};

@@ -81,8 +81,10 @@ fn refuse(reason: String, outputs: &[(TruthTable, TruthTable)]) -> TooLarge {
 
 /// Minimizes the outputs `(on, dc)` together: output `i` must be 1 on
 /// `on_i` outside `dc_i`, 0 outside `on_i | dc_i`, and is free on `dc_i`.
-/// The budget applies to the whole problem (`max_primes` to the primes of
-/// every set of outputs together).
+/// Each output is first minimized alone (for the comparison and a bound),
+/// then the shared cover is searched; each of these gets the whole budget,
+/// except `max_primes`, which counts the primes of every set of outputs
+/// together.
 pub fn minimize_multi(
     outputs: &[(TruthTable, TruthTable)],
     budget: &Budget,
