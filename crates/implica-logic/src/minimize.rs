@@ -400,16 +400,18 @@ pub fn minimize_pos(
     minimize_sop(&off, dc, budget)
 }
 
-/// Unate covering: choose columns so that every row is covered, at least
-/// cost. Rows list their columns; a column of `literals[c]` literals costs
-/// `term + literals[c]`, where `term` exceeds the literals of any cover, so
-/// that fewer terms always win.
+/// The columns of the cover found, whether it is proven of least cost, and
+/// the fewest columns any cover needs, as proven.
 pub(crate) struct Solution {
     pub(crate) columns: Vec<usize>,
     pub(crate) proven: bool,
     pub(crate) lower_bound_terms: usize,
 }
 
+/// Unate covering: choose columns so that every row is covered, at least
+/// cost. Rows list their columns; a column of `literals[c]` literals costs
+/// `term + literals[c]`, where `term` exceeds the literals of any cover, so
+/// that fewer terms always win.
 pub(crate) fn solve_cover(
     rows: Vec<Vec<u32>>,
     literals: &[u64],
