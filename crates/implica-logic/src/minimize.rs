@@ -432,6 +432,7 @@ pub(crate) fn solve_cover(
     };
     let mut solver = Solver {
         term,
+        depth: 0,
         nodes: 0,
         max_nodes: budget.max_nodes,
         work: 0,
@@ -740,6 +741,8 @@ struct Part {
 struct Solver {
     /// The cost of a term, beside its literals.
     term: u64,
+    /// Columns chosen by branching on the way to the current node.
+    depth: usize,
     nodes: u64,
     max_nodes: u64,
     work: u64,
@@ -749,6 +752,9 @@ struct Solver {
 
 /// Subgradient steps at the root of a component and at each node.
 const ROOT_STEPS: usize = 300;
+/// Most columns chosen by branching along one path, which bounds the
+/// recursion (a deeper search ends as past the budget).
+const MAX_DEPTH: usize = 1000;
 const NODE_STEPS: usize = 40;
 /// Subgradient steps between two covers built from the reduced costs.
 const PRIMAL_EVERY: usize = 10;
@@ -934,9 +940,15 @@ impl Solver {
         let c = (0..m.cost.len())
             .filter(|&c| !drop[c])
             .min_by_key(|&c| (bound.reduced[c], m.cost[c]))?;
+        if self.depth >= MAX_DEPTH {
+            self.exhausted = true;
+            return None;
+        }
         let child = m.choose(&col_rows, c, &drop);
         path.push(m.id[c]);
+        self.depth += 1;
         self.branch(child, cost + m.cost[c], path, best);
+        self.depth -= 1;
         path.pop();
         if self.exhausted {
             return None;
