@@ -433,6 +433,7 @@ pub(crate) fn solve_cover(
     let mut solver = Solver {
         term,
         depth: 0,
+        cut: false,
         nodes: 0,
         max_nodes: budget.max_nodes,
         work: 0,
@@ -743,6 +744,8 @@ struct Solver {
     term: u64,
     /// Columns chosen by branching on the way to the current node.
     depth: usize,
+    /// Whether a subtree of the current component was left unsearched.
+    cut: bool,
     nodes: u64,
     max_nodes: u64,
     work: u64,
@@ -753,7 +756,7 @@ struct Solver {
 /// Subgradient steps at the root of a component and at each node.
 const ROOT_STEPS: usize = 300;
 /// Most columns chosen by branching along one path, which bounds the
-/// recursion (a deeper search ends as past the budget).
+/// recursion; deeper subtrees are left unsearched (and nothing is proven).
 const MAX_DEPTH: usize = 1000;
 const NODE_STEPS: usize = 40;
 /// Subgradient steps between two covers built from the reduced costs.
@@ -813,10 +816,12 @@ impl Solver {
                     best = better;
                 }
             }
+            let outer_cut = std::mem::take(&mut self.cut);
             if bound < best.0 {
                 self.branch(component, 0, &mut Vec::new(), &mut best);
             }
-            let proven = bound >= best.0 || !self.exhausted;
+            let proven = bound >= best.0 || !(self.exhausted || self.cut);
+            self.cut |= outer_cut;
             part.cost = part.cost.saturating_add(best.0);
             part.columns.extend(best.1);
             part.lower_bound += if proven { best.0 } else { bound.min(best.0) };
@@ -941,7 +946,8 @@ impl Solver {
             .filter(|&c| !drop[c])
             .min_by_key(|&c| (bound.reduced[c], m.cost[c]))?;
         if self.depth >= MAX_DEPTH {
-            self.exhausted = true;
+            // The greedy completion above stands for this subtree.
+            self.cut = true;
             return None;
         }
         let child = m.choose(&col_rows, c, &drop);
