@@ -3,8 +3,10 @@
 //! free inputs, visited depth first, so only the primes are held), then a
 //! minimum cover by branch and bound: essential columns, row and column
 //! dominance, independent connected components searched apart, and a lower
-//! bound by Lagrangian relaxation (started from an independent set of rows)
-//! whose reduced costs also drop columns and order the branches.
+//! bound by Lagrangian relaxation (started from an independent set of rows,
+//! read against the true costs and as a whole number of terms). Its reduced
+//! costs drop columns, pick the column to branch on (with it, then without
+//! it) and steer the greedy covers that give the upper bounds.
 //!
 //! Cost: fewest product terms, then fewest literals.
 
