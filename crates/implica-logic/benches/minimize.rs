@@ -3,7 +3,7 @@
 //! docs/benchmarks.md.
 
 use divan::Bencher;
-use implica_logic::{Budget, TruthTable, minimize_sop};
+use implica_logic::{Budget, TruthTable, minimize_multi, minimize_sop};
 
 #[global_allocator]
 static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
@@ -12,16 +12,19 @@ fn main() {
     // How often the default budget proves the result minimal (slow: set
     // IMPLICA_BENCH_SUMMARY=1 to print it).
     let summary = std::env::var_os("IMPLICA_BENCH_SUMMARY").is_some();
-    for vars in [8usize, 10].into_iter().filter(|_| summary) {
+    for vars in [8usize, 10, 12].into_iter().filter(|_| summary) {
         let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
-        let proven = functions
-            .iter()
-            .filter(|(on, dc)| {
-                minimize_sop(on, dc, &Budget::default()).is_ok_and(|r| r.proven_minimal)
-            })
-            .count();
+        let (mut proven, mut terms, mut bound) = (0, 0, 0);
+        for (on, dc) in &functions {
+            if let Ok(r) = minimize_sop(on, dc, &Budget::default()) {
+                proven += usize::from(r.proven_minimal);
+                terms += r.cover.len();
+                bound += r.lower_bound;
+            }
+        }
         println!(
-            "{vars} inputs: {proven} of {} random functions proven minimal",
+            "{vars} inputs: {proven} of {} random functions proven minimal; \
+             {terms} terms in all, lower bound {bound}",
             functions.len()
         );
     }
@@ -40,7 +43,44 @@ fn main() {
             Err(e) => println!("{name}: too large: {}", e.reason),
         }
     }
+    if summary {
+        let r = minimize_multi(&kiosk_digits(), &Budget::default()).expect("4 inputs");
+        println!(
+            "kiosk display: {} shared terms, {} literals, proven minimal: {}; \
+             apart: {} terms, {} literals",
+            r.terms.len(),
+            r.literals(),
+            r.proven_minimal,
+            r.separate_terms,
+            r.separate_literals
+        );
+    }
     divan::main();
+}
+
+/// The seven segments (top, upper right, lower right, bottom, lower left,
+/// upper left, middle) of a kiosk's digit display driven by a 4-bit digit;
+/// codes 10 to 15 never occur. Six and nine are drawn with their tails.
+fn kiosk_digits() -> Vec<(TruthTable, TruthTable)> {
+    const SEGMENTS: [u8; 10] = [
+        0b111_1110, 0b011_0000, 0b110_1101, 0b111_1001, 0b011_0011, 0b101_1011, 0b101_1111,
+        0b111_0000, 0b111_1111, 0b111_1011,
+    ];
+    let unused = TruthTable::from_minterms(4, &[10, 11, 12, 13, 14, 15]);
+    (0..7)
+        .map(|s| {
+            let lit: Vec<usize> = (0..10)
+                .filter(|&d| SEGMENTS[d] >> (6 - s) & 1 == 1)
+                .collect();
+            (TruthTable::from_minterms(4, &lit), unused.clone())
+        })
+        .collect()
+}
+
+#[divan::bench(sample_count = 10)]
+fn multi_output_kiosk_display(bencher: Bencher) {
+    let outputs = kiosk_digits();
+    bencher.bench_local(|| minimize_multi(&outputs, &Budget::default()));
 }
 
 struct Rng(u64);
@@ -73,8 +113,7 @@ fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable, Tr
         .collect()
 }
 
-// 12 inputs comes back when the cover search is faster (docs/benchmarks.md).
-#[divan::bench(args = [8, 10], sample_count = 10)]
+#[divan::bench(args = [8, 10, 12], sample_count = 10)]
 fn random_with_dont_cares(bencher: Bencher, vars: usize) {
     let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
     let mut i = 0;

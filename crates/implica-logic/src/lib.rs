@@ -1,5 +1,6 @@
 //! The Boolean engine of Implica: bit-parallel truth tables, cubes, and exact
-//! two-level minimization with don't-cares.
+//! two-level minimization with don't-cares, of one output or of several
+//! sharing product terms.
 //!
 //! ```
 //! use implica_logic::{TruthTable, minimize_sop, Budget};
@@ -23,6 +24,7 @@ mod expr;
 mod gates;
 mod heuristic;
 mod minimize;
+mod multi;
 mod render;
 mod truth_table;
 mod urp;
@@ -37,6 +39,7 @@ pub use expr::BoolExpr;
 pub use gates::{Cost, Gate, GateError, GateKind, GateNetwork, NetworkCost, Signal};
 pub use heuristic::{Heuristic, minimize_heuristic};
 pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
+pub use multi::{MAX_OUTPUTS, MultiMinimized, minimize_multi};
 pub use render::{
     DONT_CARE, Format, Function, RenderError, render_karnaugh_map, render_truth_table,
 };

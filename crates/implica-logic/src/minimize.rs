@@ -1,12 +1,16 @@
-//! Exact two-level minimization with don't-cares: all prime implicants by
-//! the tabular method of Quine and McCluskey, then a minimum cover by
-//! branch and bound (essential primes, row and column dominance, and a lower
-//! bound from a maximal independent set of rows).
+//! Exact two-level minimization with don't-cares: all prime implicants by a
+//! bit-parallel form of the tabular method (one implicant table per set of
+//! free inputs, visited depth first, so only the primes are held), then a
+//! minimum cover by branch and bound: essential columns, row and column
+//! dominance, independent connected components searched apart, and a lower
+//! bound by Lagrangian relaxation (started from an independent set of rows,
+//! read against the true costs and as a whole number of terms). Its reduced
+//! costs drop columns, pick the column to branch on (with it, then without
+//! it) and steer the greedy covers that give the upper bounds.
 //!
 //! Cost: fewest product terms, then fewest literals.
 
 use crate::{Cover, Cube, TruthTable};
-use std::collections::HashSet;
 
 /// Limits of one minimization. Past them the result is not proven minimal
 /// (or, for the inputs and primes, not attempted); nothing runs unbounded.
@@ -14,11 +18,17 @@ use std::collections::HashSet;
 pub struct Budget {
     /// Most inputs handled exactly.
     pub max_vars: usize,
-    /// Most implicants held while generating the prime implicants.
+    /// Most prime implicants generated (the generation holds only these and
+    /// one implicant table per free input, so memory stays bounded).
     pub max_primes: usize,
     /// Most branch-and-bound nodes explored; past this the best cover found
     /// so far is returned with its lower bound.
     pub max_nodes: u64,
+    /// Most work in the cover search, counted in covering-matrix entries
+    /// visited (a measure of time that does not depend on the machine:
+    /// about 10^7 entries take 0.07 s on the machine of docs/benchmarks.md).
+    /// Past this, as past `max_nodes`.
+    pub max_work: u64,
 }
 
 impl Default for Budget {
@@ -27,6 +37,7 @@ impl Default for Budget {
             max_vars: 16,
             max_primes: 200_000,
             max_nodes: 200_000,
+            max_work: 10_000_000,
         }
     }
 }
@@ -60,13 +71,13 @@ pub struct TooLarge {
 /// An implicant in minterm-index space: `value` with the bits of `free`
 /// eliminated (`value & free == 0`).
 #[derive(Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
-struct Implicant {
-    value: u32,
-    free: u32,
+pub(crate) struct Implicant {
+    pub(crate) value: u32,
+    pub(crate) free: u32,
 }
 
 impl Implicant {
-    fn to_cube(self, vars: usize) -> Cube {
+    pub(crate) fn to_cube(self, vars: usize) -> Cube {
         let mut c = Cube { zero: 0, one: 0 };
         for i in 0..vars {
             let bit = 1u32 << (vars - 1 - i);
@@ -83,7 +94,7 @@ impl Implicant {
     }
 
     /// Every minterm of the implicant.
-    fn minterms(self) -> impl Iterator<Item = usize> {
+    pub(crate) fn minterms(self) -> impl Iterator<Item = usize> {
         let free = self.free;
         let mut sub = 0u32;
         let mut done = false;
@@ -100,11 +111,17 @@ impl Implicant {
 }
 
 fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), TooLarge> {
-    assert_eq!(
-        on.vars(),
-        dc.vars(),
-        "on-set and don't-care set over different inputs"
-    );
+    if on.vars() != dc.vars() {
+        return Err(TooLarge {
+            reason: format!(
+                "on-set over {} inputs, don't-cares over {}",
+                on.vars(),
+                dc.vars()
+            ),
+            vars: on.vars(),
+            on_set: on.count_ones(),
+        });
+    }
     if on.vars() > budget.max_vars {
         return Err(TooLarge {
             reason: format!(
@@ -119,65 +136,196 @@ fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), T
     Ok(())
 }
 
-fn primes_of(
+/// Masks of the bit positions `l` of a 64-bit word whose index bit `b` is 0.
+const LOW_HALF: [u64; 6] = [
+    0x5555_5555_5555_5555,
+    0x3333_3333_3333_3333,
+    0x0F0F_0F0F_0F0F_0F0F,
+    0x00FF_00FF_00FF_00FF,
+    0x0000_FFFF_0000_FFFF,
+    0x0000_0000_FFFF_FFFF,
+];
+
+/// Each bit of `x` exchanged with the bit whose index differs in bit `b` (< 6).
+fn swap_bits(x: u64, b: usize) -> u64 {
+    let s = 1u32 << b;
+    ((x & LOW_HALF[b]) << s) | ((x >> s) & LOW_HALF[b])
+}
+
+fn table_words(t: &TruthTable) -> Vec<u64> {
+    let mut words = vec![0u64; (1usize << t.vars()).div_ceil(64)];
+    for m in t.minterms() {
+        words[m / 64] |= 1 << (m % 64);
+    }
+    words
+}
+
+/// Prime generation over bit-parallel implicant tables, one per set of free
+/// minterm bits, visited depth first (each set from the set without its
+/// highest bit). The table of a set says, for each cube of that shape,
+/// whether it is an implicant: bit `l` of word `c` stands for the cube whose
+/// low six minterm bits are `l` (replicated along the free ones) and whose
+/// other bound bits are `c`, packed. Freeing a low bit ANDs each word with
+/// itself, bits exchanged; freeing a high bit ANDs pairs of words and halves
+/// the table. A cube is prime when no neighbour across a bound bit is an
+/// implicant. Memory is one table per depth plus the primes; work is at most
+/// 64 * 3^(n-6) words per bound bit.
+struct PrimeSearch<'a> {
+    vars: usize,
+    low: usize,
+    budget: &'a Budget,
+    primes: Vec<Implicant>,
+    too_many: bool,
+}
+
+impl PrimeSearch<'_> {
+    /// `care`: implicant table of `free`; `need`: whether each cube holds a
+    /// required minterm; `bound_high`: the minterm bit of each packed bit of
+    /// the word index.
+    fn visit(&mut self, free: u32, care: &[u64], need: &[u64], bound_high: &[u32], next: usize) {
+        self.collect(free, care, need, bound_high);
+        if self.too_many {
+            return;
+        }
+        for b in next..self.vars {
+            let (c, n, h): (Vec<u64>, Vec<u64>, Vec<u32>) = if b < self.low {
+                (
+                    care.iter().map(|&w| w & swap_bits(w, b)).collect(),
+                    need.iter().map(|&w| w | swap_bits(w, b)).collect(),
+                    bound_high.to_vec(),
+                )
+            } else {
+                let Some(p) = bound_high.iter().position(|&h| h as usize == b) else {
+                    continue;
+                };
+                let stride = 1usize << p;
+                let pair = |i: usize| ((i >> p) << (p + 1)) | (i & (stride - 1));
+                let half = care.len() / 2;
+                let mut h = bound_high.to_vec();
+                h.remove(p);
+                (
+                    (0..half)
+                        .map(|i| care[pair(i)] & care[pair(i) | stride])
+                        .collect(),
+                    (0..half)
+                        .map(|i| need[pair(i)] | need[pair(i) | stride])
+                        .collect(),
+                    h,
+                )
+            };
+            if c.iter().all(|&w| w == 0) {
+                continue;
+            }
+            self.visit(free | 1 << b, &c, &n, &h, b + 1);
+            if self.too_many {
+                return;
+            }
+        }
+    }
+
+    fn collect(&mut self, free: u32, care: &[u64], need: &[u64], bound_high: &[u32]) {
+        let low_free = free & ((1u32 << self.low) - 1);
+        let mut representative = u64::MAX;
+        let mut bound_low = Vec::new();
+        for (b, &half) in LOW_HALF.iter().enumerate().take(self.low) {
+            if low_free >> b & 1 == 1 {
+                representative &= half;
+            } else {
+                bound_low.push(b);
+            }
+        }
+        for (c, (&w, &r)) in care.iter().zip(need).enumerate() {
+            if w == 0 {
+                continue;
+            }
+            let mut larger = 0u64;
+            for &b in &bound_low {
+                larger |= swap_bits(w, b);
+            }
+            for p in 0..bound_high.len() {
+                larger |= care[c ^ (1 << p)];
+            }
+            let mut prime = w & !larger & r & representative;
+            if prime == 0 {
+                continue;
+            }
+            let mut high = 0u32;
+            for (p, &h) in bound_high.iter().enumerate() {
+                if c >> p & 1 == 1 {
+                    high |= 1 << h;
+                }
+            }
+            while prime != 0 {
+                let l = prime.trailing_zeros();
+                prime &= prime - 1;
+                if self.primes.len() == self.budget.max_primes {
+                    self.too_many = true;
+                    return;
+                }
+                self.primes.push(Implicant {
+                    value: high | l,
+                    free,
+                });
+            }
+        }
+    }
+}
+
+pub(crate) fn primes_of(
     on: &TruthTable,
     dc: &TruthTable,
     budget: &Budget,
 ) -> Result<Vec<Implicant>, TooLarge> {
     check_size(on, dc, budget)?;
     let vars = on.vars();
-    let care = on.or(dc);
-    let mut level: HashSet<Implicant> = care
-        .minterms()
-        .into_iter()
-        .map(|m| Implicant {
-            value: m as u32,
-            free: 0,
-        })
-        .collect();
-    let mut primes = Vec::new();
-    while !level.is_empty() {
-        let mut next = HashSet::new();
-        let mut merged: HashSet<Implicant> = HashSet::new();
-        for &imp in &level {
-            for b in 0..vars {
-                let bit = 1u32 << b;
-                if imp.free & bit != 0 || imp.value & bit != 0 {
-                    continue;
-                }
-                let partner = Implicant {
-                    value: imp.value | bit,
-                    free: imp.free,
-                };
-                if level.contains(&partner) {
-                    next.insert(Implicant {
-                        value: imp.value,
-                        free: imp.free | bit,
-                    });
-                    merged.insert(imp);
-                    merged.insert(partner);
-                }
-            }
-        }
-        for &imp in &level {
-            if !merged.contains(&imp) && imp.minterms().any(|m| on.get(m) && !dc.get(m)) {
-                primes.push(imp);
-            }
-        }
-        if primes.len() + next.len() > budget.max_primes {
-            return Err(TooLarge {
-                reason: format!(
-                    "more than {} implicants while generating the prime implicants",
-                    budget.max_primes
-                ),
-                vars,
-                on_set: on.and_not(dc).count_ones(),
-            });
-        }
-        level = next;
+    let low = vars.min(6);
+    let mut search = PrimeSearch {
+        vars,
+        low,
+        budget,
+        primes: Vec::new(),
+        too_many: false,
+    };
+    let care = table_words(&on.or(dc));
+    let need = table_words(&on.and_not(dc));
+    let bound_high: Vec<u32> = (low as u32..vars as u32).collect();
+    if care.iter().any(|&w| w != 0) {
+        search.visit(0, &care, &need, &bound_high, 0);
     }
+    if search.too_many {
+        return Err(TooLarge {
+            reason: format!("more than {} prime implicants", budget.max_primes),
+            vars,
+            on_set: on.and_not(dc).count_ones(),
+        });
+    }
+    let mut primes = search.primes;
     primes.sort();
     Ok(primes)
+}
+
+/// Most entries of a covering matrix, bounded by the minterms of its
+/// columns (a gibibyte of row lists).
+pub(crate) const MAX_MATRIX: u64 = 1 << 28;
+
+/// Refuses a covering matrix whose columns hold more than [`MAX_MATRIX`] minterms.
+pub(crate) fn check_matrix(
+    primes: &[Implicant],
+    vars: usize,
+    on_set: usize,
+) -> Result<(), TooLarge> {
+    let entries: u64 = primes.iter().map(|p| 1u64 << p.free.count_ones()).sum();
+    if entries > MAX_MATRIX {
+        return Err(TooLarge {
+            reason: format!(
+                "a covering matrix of more than {MAX_MATRIX} entries ({} prime implicants)",
+                primes.len()
+            ),
+            vars,
+            on_set,
+        });
+    }
+    Ok(())
 }
 
 /// All prime implicants of the function that is 1 on `on`, free on `dc`,
@@ -205,23 +353,24 @@ pub fn minimize_sop(
     let vars = on.vars();
     let primes = primes_of(on, dc, budget)?;
     let required = on.and_not(dc).minterms();
-    let mut row_of = std::collections::HashMap::with_capacity(required.len());
+    check_matrix(&primes, vars, required.len())?;
+    let mut row_of = vec![u32::MAX; 1usize << vars];
     for (r, &m) in required.iter().enumerate() {
-        row_of.insert(m, r as u32);
+        row_of[m] = r as u32;
     }
-    let col_rows: Vec<Vec<u32>> = primes
+    let mut rows = vec![Vec::new(); required.len()];
+    for (c, p) in primes.iter().enumerate() {
+        for m in p.minterms() {
+            if row_of[m] != u32::MAX {
+                rows[row_of[m] as usize].push(c as u32);
+            }
+        }
+    }
+    let literals: Vec<u64> = primes
         .iter()
-        .map(|p| {
-            p.minterms()
-                .filter_map(|m| row_of.get(&m).copied())
-                .collect()
-        })
+        .map(|p| (vars - p.free.count_ones() as usize) as u64)
         .collect();
-    let col_cost: Vec<u64> = primes
-        .iter()
-        .map(|p| (1u64 << 32) + (vars - p.free.count_ones() as usize) as u64)
-        .collect();
-    let solution = CoverProblem::new(required.len(), col_rows, col_cost).solve(budget.max_nodes);
+    let solution = solve_cover(rows, &literals, vars, budget);
     let mut cubes: Vec<Cube> = solution
         .columns
         .iter()
@@ -248,307 +397,239 @@ pub fn minimize_pos(
     dc: &TruthTable,
     budget: &Budget,
 ) -> Result<Minimized, TooLarge> {
+    check_size(on, dc, budget)?;
     let off = !&on.or(dc);
     minimize_sop(&off, dc, budget)
 }
 
-/// Unate covering: choose columns so that every row is covered, at least cost.
-struct CoverProblem {
-    row_cols: Vec<Vec<u32>>,
-    col_rows: Vec<Vec<u32>>,
-    col_cost: Vec<u64>,
+/// The columns of the cover found, whether it is proven of least cost, and
+/// the fewest columns any cover needs, as proven.
+pub(crate) struct Solution {
+    pub(crate) columns: Vec<usize>,
+    pub(crate) proven: bool,
+    pub(crate) lower_bound_terms: usize,
 }
 
-struct Solution {
-    columns: Vec<usize>,
-    proven: bool,
-    lower_bound_terms: usize,
+/// Unate covering: choose columns so that every row is covered, at least
+/// cost. Rows list their columns; a column of `literals[c]` literals costs
+/// `term + literals[c]`, where `term` exceeds the literals of any cover, so
+/// that fewer terms always win.
+pub(crate) fn solve_cover(
+    rows: Vec<Vec<u32>>,
+    literals: &[u64],
+    vars: usize,
+    budget: &Budget,
+) -> Solution {
+    // A search never picks more columns than there are rows.
+    let term = (rows.len() as u64) * (vars as u64) + 1;
+    let mut packed = Rows::default();
+    for row in &rows {
+        packed.push(row.iter().copied());
+    }
+    let matrix = Matrix {
+        mult: vec![0; rows.len()],
+        rows: packed,
+        cost: literals.iter().map(|&l| term + l).collect(),
+        id: (0..literals.len() as u32).collect(),
+    };
+    let mut solver = Solver {
+        term,
+        depth: 0,
+        cut: false,
+        nodes: 0,
+        max_nodes: budget.max_nodes,
+        work: 0,
+        max_work: budget.max_work,
+        exhausted: false,
+    };
+    let part = solver.solve(matrix, ROOT_STEPS);
+    let mut columns: Vec<usize> = part.columns.iter().map(|&c| c as usize).collect();
+    columns.sort_unstable();
+    Solution {
+        proven: part.proven,
+        lower_bound_terms: ((part.lower_bound / term) as usize).min(columns.len()),
+        columns,
+    }
 }
 
+/// Lagrange multipliers are fixed point, in units of 1/`SCALE` of a cost,
+/// so that every bound is computed exactly.
+const SCALE: i64 = 256;
+
+/// Lists of column indices, one per row, stored end to end: row `r` is
+/// `entries[start[r]..start[r + 1]]`.
 #[derive(Clone)]
-struct State {
-    row_alive: Vec<bool>,
-    col_alive: Vec<bool>,
-    chosen: Vec<usize>,
-    cost: u64,
+struct Rows {
+    start: Vec<u32>,
+    entries: Vec<u32>,
 }
 
-struct Search<'a> {
-    p: &'a CoverProblem,
-    best: Option<(u64, Vec<usize>)>,
-    nodes: u64,
-    max_nodes: u64,
-    exhausted: bool,
+impl Default for Rows {
+    fn default() -> Rows {
+        Rows {
+            start: vec![0],
+            entries: Vec::new(),
+        }
+    }
 }
 
-impl CoverProblem {
-    fn new(rows: usize, col_rows: Vec<Vec<u32>>, col_cost: Vec<u64>) -> CoverProblem {
-        let mut row_cols = vec![Vec::new(); rows];
-        for (c, rs) in col_rows.iter().enumerate() {
-            for &r in rs {
-                row_cols[r as usize].push(c as u32);
+impl Rows {
+    fn len(&self) -> usize {
+        self.start.len() - 1
+    }
+
+    fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+
+    fn push(&mut self, row: impl Iterator<Item = u32>) {
+        self.entries.extend(row);
+        self.start.push(self.entries.len() as u32);
+    }
+
+    fn iter(&self) -> impl Iterator<Item = &[u32]> {
+        (0..self.len()).map(|r| &self[r])
+    }
+}
+
+impl std::ops::Index<usize> for Rows {
+    type Output = [u32];
+
+    fn index(&self, r: usize) -> &[u32] {
+        &self.entries[self.start[r] as usize..self.start[r + 1] as usize]
+    }
+}
+
+/// A covering matrix: each row's columns (ascending local indices), each
+/// column's cost and its index in the whole problem, and a Lagrange
+/// multiplier per row carried from the parent problem as a warm start.
+#[derive(Clone)]
+struct Matrix {
+    rows: Rows,
+    cost: Vec<u64>,
+    id: Vec<u32>,
+    mult: Vec<i64>,
+}
+
+impl Matrix {
+    fn col_rows(&self) -> Rows {
+        let mut start = vec![0u32; self.cost.len() + 1];
+        for &c in &self.rows.entries {
+            start[c as usize + 1] += 1;
+        }
+        for c in 0..self.cost.len() {
+            start[c + 1] += start[c];
+        }
+        let mut fill = start.clone();
+        let mut entries = vec![0u32; self.rows.entries.len()];
+        for (r, row) in self.rows.iter().enumerate() {
+            for &c in row {
+                entries[fill[c as usize] as usize] = r as u32;
+                fill[c as usize] += 1;
             }
         }
-        CoverProblem {
-            row_cols,
-            col_rows,
-            col_cost,
+        Rows { start, entries }
+    }
+
+    /// The submatrix of the live rows and columns, renumbered in order.
+    fn restrict(&self, row_live: &[bool], col_live: &[bool]) -> Matrix {
+        let mut index = vec![u32::MAX; self.cost.len()];
+        let mut cost = Vec::new();
+        let mut id = Vec::new();
+        for c in 0..self.cost.len() {
+            if col_live[c] {
+                index[c] = cost.len() as u32;
+                cost.push(self.cost[c]);
+                id.push(self.id[c]);
+            }
+        }
+        let mut rows = Rows::default();
+        let mut mult = Vec::new();
+        for (r, row) in self.rows.iter().enumerate() {
+            if row_live[r] {
+                rows.push(
+                    row.iter()
+                        .filter(|&&c| col_live[c as usize])
+                        .map(|&c| index[c as usize]),
+                );
+                mult.push(self.mult[r]);
+            }
+        }
+        Matrix {
+            rows,
+            cost,
+            id,
+            mult,
         }
     }
 
-    fn solve(&self, max_nodes: u64) -> Solution {
-        let mut state = State {
-            row_alive: vec![true; self.row_cols.len()],
-            col_alive: vec![true; self.col_rows.len()],
-            chosen: Vec::new(),
-            cost: 0,
-        };
-        let mut search = Search {
-            p: self,
-            best: None,
-            nodes: 0,
-            max_nodes,
-            exhausted: false,
-        };
-        // The root's bound, in terms: the essentials plus an independent set of rows.
-        let root_bound = if search.reduce(&mut state) {
-            state.chosen.len() + search.independent_rows(&state).len()
-        } else {
-            0
-        };
-        search.best = Some(search.greedy(state.clone()));
-        search.branch(state);
-        let (_, columns) = search.best.take().unwrap_or_default();
-        Solution {
-            proven: !search.exhausted,
-            lower_bound_terms: root_bound.min(columns.len()),
-            columns,
+    /// The matrix after choosing column `c` and dropping the columns in `drop`.
+    fn choose(&self, col_rows: &Rows, c: usize, drop: &[bool]) -> Matrix {
+        let mut row_live = vec![true; self.rows.len()];
+        for &r in &col_rows[c] {
+            row_live[r as usize] = false;
         }
+        let mut col_live: Vec<bool> = drop.iter().map(|d| !d).collect();
+        col_live[c] = false;
+        self.restrict(&row_live, &col_live)
     }
-}
 
-impl Search<'_> {
-    fn select(&self, s: &mut State, c: usize) {
-        s.chosen.push(c);
-        s.cost += self.p.col_cost[c];
-        s.col_alive[c] = false;
-        for &r in &self.p.col_rows[c] {
-            s.row_alive[r as usize] = false;
+    /// The connected components (rows linked by shared columns), each as
+    /// its own matrix; a cover of the whole is a cover of each. Empty when
+    /// the matrix is connected.
+    fn components(&self) -> Vec<Matrix> {
+        let cols = self.cost.len();
+        let mut parent: Vec<u32> = (0..cols as u32).collect();
+        fn find(parent: &mut [u32], mut x: u32) -> u32 {
+            while parent[x as usize] != x {
+                parent[x as usize] = parent[parent[x as usize] as usize];
+                x = parent[x as usize];
+            }
+            x
         }
-    }
-
-    fn alive_cols_of<'s>(&'s self, s: &'s State, r: usize) -> impl Iterator<Item = usize> + 's {
-        self.p.row_cols[r]
-            .iter()
-            .map(|&c| c as usize)
-            .filter(move |&c| s.col_alive[c])
-    }
-
-    /// Essential columns and dominance until nothing changes. False when a
-    /// row can no longer be covered.
-    fn reduce(&self, s: &mut State) -> bool {
-        loop {
-            let mut changed = false;
-            for r in 0..s.row_alive.len() {
-                if !s.row_alive[r] {
-                    continue;
+        for row in self.rows.iter() {
+            let a = find(&mut parent, row[0]);
+            for &c in &row[1..] {
+                let b = find(&mut parent, c);
+                if a != b {
+                    parent[b as usize] = a;
                 }
-                let mut cols = self.p.row_cols[r]
+            }
+        }
+        let roots: Vec<u32> = (0..cols as u32).map(|c| find(&mut parent, c)).collect();
+        let mut group_of = vec![usize::MAX; cols];
+        let mut groups = 0;
+        for row in self.rows.iter() {
+            let root = roots[row[0] as usize] as usize;
+            if group_of[root] == usize::MAX {
+                group_of[root] = groups;
+                groups += 1;
+            }
+        }
+        if groups <= 1 {
+            return Vec::new();
+        }
+        (0..groups)
+            .map(|g| {
+                let row_live: Vec<bool> = self
+                    .rows
                     .iter()
-                    .map(|&c| c as usize)
-                    .filter(|&c| s.col_alive[c]);
-                match (cols.next(), cols.next()) {
-                    (None, _) => return false,
-                    (Some(c), None) => {
-                        self.select(s, c);
-                        changed = true;
-                    }
-                    _ => {}
-                }
-            }
-            // Live rows of each column and live columns of each row, sorted.
-            let col_live = live_lists(&self.p.col_rows, &s.col_alive, &s.row_alive);
-            // Column dominance: a column whose live rows another column of no
-            // greater cost also covers is never needed. Such a column covers
-            // the first of those rows, so only its columns are candidates.
-            for a in 0..s.col_alive.len() {
-                if !s.col_alive[a] {
-                    continue;
-                }
-                let rows_a = &col_live[a];
-                let Some(&first) = rows_a.first() else {
-                    s.col_alive[a] = false;
-                    changed = true;
-                    continue;
-                };
-                let dominated = self.p.row_cols[first as usize]
+                    .map(|row| group_of[roots[row[0] as usize] as usize] == g)
+                    .collect();
+                let col_live: Vec<bool> = roots
                     .iter()
-                    .map(|&b| b as usize)
-                    .any(|b| {
-                        if b == a || !s.col_alive[b] {
-                            return false;
-                        }
-                        let rows_b = &col_live[b];
-                        let (ca, cb) = (self.p.col_cost[a], self.p.col_cost[b]);
-                        let better =
-                            cb < ca || (cb == ca && (rows_b.len() > rows_a.len() || b < a));
-                        better && rows_b.len() >= rows_a.len() && subset(rows_a, rows_b)
-                    });
-                if dominated {
-                    s.col_alive[a] = false;
-                    changed = true;
-                }
-            }
-            // Row dominance: a row whose live columns include all of another
-            // row's is covered whenever that row is. Such a row is covered by
-            // the other row's first column, so only that column's rows are
-            // candidates.
-            let row_live = live_lists(&self.p.row_cols, &s.row_alive, &s.col_alive);
-            for q in 0..s.row_alive.len() {
-                if !s.row_alive[q] {
-                    continue;
-                }
-                let cols_q = &row_live[q];
-                let Some(&first) = cols_q.first() else {
-                    continue;
-                };
-                for &r in &self.p.col_rows[first as usize] {
-                    let r = r as usize;
-                    if r == q || !s.row_alive[r] {
-                        continue;
-                    }
-                    let cols_r = &row_live[r];
-                    if cols_r.len() >= cols_q.len()
-                        && (cols_r.len() > cols_q.len() || q < r)
-                        && subset(cols_q, cols_r)
-                    {
-                        s.row_alive[r] = false;
-                        changed = true;
-                    }
-                }
-            }
-            if !changed {
-                return true;
-            }
-        }
-    }
-
-    /// Rows no two of which share a live column: each needs its own term.
-    fn independent_rows(&self, s: &State) -> Vec<usize> {
-        let mut rows: Vec<usize> = (0..s.row_alive.len()).filter(|&r| s.row_alive[r]).collect();
-        rows.sort_by_key(|&r| self.alive_cols_of(s, r).count());
-        let mut used = vec![false; s.col_alive.len()];
-        let mut picked = Vec::new();
-        for r in rows {
-            let cols: Vec<usize> = self.alive_cols_of(s, r).collect();
-            if cols.iter().all(|&c| !used[c]) {
-                for c in cols {
-                    used[c] = true;
-                }
-                picked.push(r);
-            }
-        }
-        picked
-    }
-
-    fn lower_bound(&self, s: &State) -> u64 {
-        self.independent_rows(s)
-            .into_iter()
-            .map(|r| {
-                self.alive_cols_of(s, r)
-                    .map(|c| self.p.col_cost[c])
-                    .min()
-                    .unwrap_or(0)
+                    .map(|&root| group_of[root as usize] == g)
+                    .collect();
+                self.restrict(&row_live, &col_live)
             })
-            .sum()
-    }
-
-    /// A cover by repeatedly taking the column that covers the most live rows per cost.
-    fn greedy(&self, mut s: State) -> (u64, Vec<usize>) {
-        while let Some(r) = (0..s.row_alive.len()).find(|&r| s.row_alive[r]) {
-            let best = self
-                .alive_cols_of(&s, r)
-                .max_by(|&a, &b| {
-                    let gain = |c: usize| {
-                        let n = self.p.col_rows[c]
-                            .iter()
-                            .filter(|&&r| s.row_alive[r as usize])
-                            .count();
-                        (n as f64) / (self.p.col_cost[c] as f64)
-                    };
-                    gain(a).total_cmp(&gain(b)).then(b.cmp(&a))
-                })
-                .expect("a live row has a live column");
-            self.select(&mut s, best);
-        }
-        (s.cost, s.chosen)
-    }
-
-    fn branch(&mut self, mut s: State) {
-        self.nodes += 1;
-        if self.nodes > self.max_nodes {
-            self.exhausted = true;
-            return;
-        }
-        if !self.reduce(&mut s) {
-            return;
-        }
-        let best_cost = self.best.as_ref().map_or(u64::MAX, |b| b.0);
-        if s.cost + self.lower_bound(&s) >= best_cost {
-            return;
-        }
-        let Some(r) = (0..s.row_alive.len())
-            .filter(|&r| s.row_alive[r])
-            .min_by_key(|&r| self.alive_cols_of(&s, r).count())
-        else {
-            self.best = Some((s.cost, s.chosen));
-            return;
-        };
-        let mut cols: Vec<usize> = self.alive_cols_of(&s, r).collect();
-        // Columns covering the most live rows first: good covers early make the bound bite.
-        let live = |c: usize| {
-            self.p.col_rows[c]
-                .iter()
-                .filter(|&&r| s.row_alive[r as usize])
-                .count()
-        };
-        cols.sort_by_key(|&c| (std::cmp::Reverse(live(c)), self.p.col_cost[c]));
-        for (k, &c) in cols.iter().enumerate() {
-            let mut next = s.clone();
-            // Columns tried before this one are excluded: their branches are done.
-            for &earlier in &cols[..k] {
-                next.col_alive[earlier] = false;
-            }
-            self.select(&mut next, c);
-            self.branch(next);
-            if self.exhausted {
-                return;
-            }
-        }
+            .collect()
     }
 }
 
-/// For each live owner (row or column), its live entries; empty for the dead.
-fn live_lists(lists: &[Vec<u32>], owner_alive: &[bool], entry_alive: &[bool]) -> Vec<Vec<u32>> {
-    lists
-        .iter()
-        .zip(owner_alive)
-        .map(|(list, &alive)| {
-            if !alive {
-                return Vec::new();
-            }
-            list.iter()
-                .copied()
-                .filter(|&e| entry_alive[e as usize])
-                .collect()
-        })
-        .collect()
-}
-
-/// Whether sorted `a` is a subset of sorted `b`.
-fn subset(a: &[u32], b: &[u32]) -> bool {
+/// Whether the live entries of ascending `a` are all in ascending `b`.
+fn subset_live(a: &[u32], b: &[u32], live: impl Fn(u32) -> bool) -> bool {
     let mut j = 0;
-    for &x in a {
+    for &x in a.iter().filter(|&&x| live(x)) {
         while j < b.len() && b[j] < x {
             j += 1;
         }
@@ -558,4 +639,687 @@ fn subset(a: &[u32], b: &[u32]) -> bool {
         j += 1;
     }
     true
+}
+
+/// Essential columns, row dominance and column dominance until nothing
+/// changes; chosen columns are added to `chosen` and `cost`. `None` when a
+/// row can no longer be covered.
+fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix> {
+    loop {
+        let (rows, cols) = (m.rows.len(), m.cost.len());
+        let mut row_live = vec![true; rows];
+        let mut col_live = vec![true; cols];
+        let mut picked = vec![false; cols];
+        let mut changed = false;
+        for row in m.rows.iter() {
+            match row {
+                [] => return None,
+                &[c] if !picked[c as usize] => {
+                    picked[c as usize] = true;
+                    col_live[c as usize] = false;
+                    chosen.push(m.id[c as usize]);
+                    *cost += m.cost[c as usize];
+                    changed = true;
+                }
+                _ => {}
+            }
+        }
+        if changed {
+            for (r, row) in m.rows.iter().enumerate() {
+                row_live[r] = !row.iter().any(|&c| picked[c as usize]);
+            }
+            m = m.restrict(&row_live, &col_live);
+            continue;
+        }
+        let col_rows = m.col_rows();
+        // Row dominance: a row whose columns include all of another row's is
+        // covered whenever that row is. Such a row holds the other row's
+        // first column, so only that column's rows are candidates.
+        for q in 0..rows {
+            if !row_live[q] {
+                continue;
+            }
+            let len_q = m.rows[q].len();
+            for &r in &col_rows[m.rows[q][0] as usize] {
+                let r = r as usize;
+                if r == q || !row_live[r] {
+                    continue;
+                }
+                let len_r = m.rows[r].len();
+                if len_r >= len_q
+                    && (len_r > len_q || q < r)
+                    && subset_live(&m.rows[q], &m.rows[r], |_| true)
+                {
+                    row_live[r] = false;
+                    changed = true;
+                }
+            }
+        }
+        // Column dominance: a column whose live rows another column of no
+        // greater cost also covers is never needed. Such a column covers the
+        // first of those rows, so only its columns are candidates.
+        let live_count: Vec<usize> = col_rows
+            .iter()
+            .map(|rs| rs.iter().filter(|&&r| row_live[r as usize]).count())
+            .collect();
+        for a in 0..cols {
+            let Some(&first) = col_rows[a].iter().find(|&&r| row_live[r as usize]) else {
+                col_live[a] = false;
+                changed = true;
+                continue;
+            };
+            let dominated = m.rows[first as usize].iter().any(|&b| {
+                let b = b as usize;
+                if b == a || !col_live[b] {
+                    return false;
+                }
+                let (ca, cb) = (m.cost[a], m.cost[b]);
+                let (na, nb) = (live_count[a], live_count[b]);
+                let better = cb < ca || (cb == ca && (nb > na || b < a));
+                better
+                    && nb >= na
+                    && subset_live(&col_rows[a], &col_rows[b], |r| row_live[r as usize])
+            });
+            if dominated {
+                col_live[a] = false;
+                changed = true;
+            }
+        }
+        if !changed {
+            return Some(m);
+        }
+        m = m.restrict(&row_live, &col_live);
+    }
+}
+
+/// A cover of part of the problem: its columns, cost, a lower bound on the
+/// cost of any cover, and whether the cover is proven of least cost.
+struct Part {
+    columns: Vec<u32>,
+    cost: u64,
+    lower_bound: u64,
+    proven: bool,
+}
+
+struct Solver {
+    /// The cost of a term, beside its literals.
+    term: u64,
+    /// Columns chosen by branching on the way to the current node.
+    depth: usize,
+    /// Whether a subtree of the current component was left unsearched.
+    cut: bool,
+    nodes: u64,
+    max_nodes: u64,
+    work: u64,
+    max_work: u64,
+    exhausted: bool,
+}
+
+/// Subgradient steps at the root of a component and at each node.
+const ROOT_STEPS: usize = 300;
+/// Most columns chosen by branching along one path, which bounds the
+/// recursion; deeper subtrees are left unsearched (and nothing is proven).
+const MAX_DEPTH: usize = 1000;
+const NODE_STEPS: usize = 40;
+/// Subgradient steps between two covers built from the reduced costs.
+const PRIMAL_EVERY: usize = 10;
+
+impl Solver {
+    /// The least-cost cover of `m` (a feasible matrix), each connected
+    /// component searched on its own.
+    fn solve(&mut self, m: Matrix, steps: usize) -> Part {
+        let mut chosen = Vec::new();
+        let mut cost = 0;
+        let Some(m) = reduce(m, &mut chosen, &mut cost) else {
+            // Unreachable for feasible matrices; claim nothing.
+            return Part {
+                columns: chosen,
+                cost: u64::MAX,
+                lower_bound: 0,
+                proven: false,
+            };
+        };
+        let mut part = Part {
+            columns: chosen,
+            cost,
+            lower_bound: cost,
+            proven: true,
+        };
+        if m.rows.is_empty() {
+            return part;
+        }
+        let mut components = m.components();
+        if components.is_empty() {
+            components.push(m);
+        }
+        for mut component in components {
+            let col_rows = component.col_rows();
+            let mut best = greedy(&component, &col_rows, None);
+            self.work += component.rows.entries.len() as u64 * (steps as u64 + 8);
+            // The reduced costs steer greedy covers as the bound rises.
+            let bound = lagrange(
+                &mut component,
+                &col_rows,
+                self.term,
+                best.0,
+                steps,
+                &mut |m: &Matrix, reduced: &[i64]| {
+                    let cover = greedy(m, &col_rows, Some(reduced));
+                    if cover.0 < best.0 {
+                        best = cover;
+                    }
+                    best.0
+                },
+            );
+            let bound = bound.cost;
+            if bound < best.0 {
+                let better = swap_down(&component, &col_rows, &best.1);
+                if better.0 < best.0 {
+                    best = better;
+                }
+            }
+            let outer_cut = std::mem::take(&mut self.cut);
+            if bound < best.0 {
+                self.branch(component, 0, &mut Vec::new(), &mut best);
+            }
+            let proven = bound >= best.0 || !(self.exhausted || self.cut);
+            self.cut |= outer_cut;
+            part.cost = part.cost.saturating_add(best.0);
+            part.columns.extend(best.1);
+            part.lower_bound += if proven { best.0 } else { bound.min(best.0) };
+            part.proven &= proven;
+        }
+        part
+    }
+
+    /// Branch and bound below a node whose chosen columns (`path`) cost
+    /// `cost`; `best` is the least-cost cover found so far.
+    /// The branch without a column is searched in the same frame (the loop),
+    /// so the recursion is only as deep as the columns chosen, each covering
+    /// a row more.
+    fn branch(
+        &mut self,
+        mut m: Matrix,
+        mut cost: u64,
+        path: &mut Vec<u32>,
+        best: &mut (u64, Vec<u32>),
+    ) {
+        let depth = path.len();
+        loop {
+            self.nodes += 1;
+            // Reduction and the bound visit the matrix about this often.
+            self.work += m.rows.entries.len() as u64 * (NODE_STEPS as u64 + 8);
+            if self.nodes > self.max_nodes || self.work > self.max_work {
+                self.exhausted = true;
+                break;
+            }
+            let Some(reduced) = reduce(m, path, &mut cost) else {
+                break;
+            };
+            match self.branch_reduced(reduced, cost, path, best) {
+                Some(next) => m = next,
+                None => break,
+            }
+        }
+        path.truncate(depth);
+    }
+
+    /// Searches below a reduced node; returns the node without its branching
+    /// column when that is still to be searched.
+    fn branch_reduced(
+        &mut self,
+        mut m: Matrix,
+        cost: u64,
+        path: &mut Vec<u32>,
+        best: &mut (u64, Vec<u32>),
+    ) -> Option<Matrix> {
+        if cost >= best.0 {
+            return None;
+        }
+        if m.rows.is_empty() {
+            *best = (cost, path.clone());
+            return None;
+        }
+        let components = m.components();
+        if !components.is_empty() {
+            // Components are independent: bound each, then solve each.
+            let mut bound = cost;
+            let mut parts = Vec::with_capacity(components.len());
+            for mut c in components {
+                let col_rows = c.col_rows();
+                let b = lagrange(
+                    &mut c,
+                    &col_rows,
+                    self.term,
+                    u64::MAX,
+                    NODE_STEPS,
+                    &mut |_, _| u64::MAX,
+                );
+                bound = bound.saturating_add(b.cost);
+                parts.push(c);
+            }
+            if bound >= best.0 {
+                return None;
+            }
+            let mut total = cost;
+            let mut columns = path.clone();
+            for c in parts {
+                let part = self.solve(c, NODE_STEPS);
+                total = total.saturating_add(part.cost);
+                columns.extend(part.columns);
+            }
+            if total < best.0 {
+                *best = (total, columns);
+            }
+            return None;
+        }
+        let col_rows = m.col_rows();
+        let room = best.0 - cost;
+        let bound = lagrange(
+            &mut m,
+            &col_rows,
+            self.term,
+            room,
+            NODE_STEPS,
+            &mut |_, _| room,
+        );
+        if bound.cost >= room {
+            return None;
+        }
+        // A cover completed greedily from here, by the reduced costs.
+        let (extra, columns) = greedy(&m, &col_rows, Some(&bound.reduced));
+        if cost.saturating_add(extra) < best.0 {
+            let mut cover = path.clone();
+            cover.extend(columns);
+            *best = (cost + extra, cover);
+        }
+        let room = best.0 - cost;
+        if bound.cost >= room {
+            return None;
+        }
+        // A column whose reduced cost lifts the bound to the best cover's
+        // cost is in no better cover.
+        let drop: Vec<bool> = (0..m.cost.len())
+            .map(|c| bound.excludes(c, m.cost[c].saturating_sub(self.term), self.term, room))
+            .collect();
+        // Branch on the column the multipliers favour most: first with it,
+        // then without it.
+        let c = (0..m.cost.len())
+            .filter(|&c| !drop[c])
+            .min_by_key(|&c| (bound.reduced[c], m.cost[c]))?;
+        if self.depth >= MAX_DEPTH {
+            // The greedy completion above stands for this subtree.
+            self.cut = true;
+            return None;
+        }
+        let child = m.choose(&col_rows, c, &drop);
+        path.push(m.id[c]);
+        self.depth += 1;
+        self.branch(child, cost + m.cost[c], path, best);
+        self.depth -= 1;
+        path.pop();
+        if self.exhausted {
+            return None;
+        }
+        let mut live: Vec<bool> = drop.iter().map(|d| !d).collect();
+        live[c] = false;
+        Some(m.restrict(&vec![true; m.rows.len()], &live))
+    }
+}
+
+/// A cover by repeatedly taking the column covering the most uncovered
+/// rows per cost, then dropping columns the others make redundant.
+fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32>) {
+    // The price of a column: its cost, or its reduced cost (at least a
+    // small share of its cost, so that every price is positive).
+    let price: Vec<f64> = match reduced {
+        None => m.cost.iter().map(|&c| c as f64).collect(),
+        Some(rc) => rc
+            .iter()
+            .zip(&m.cost)
+            .map(|(&r, &c)| (r as f64 / SCALE as f64).max(c as f64 * 1e-3))
+            .collect(),
+    };
+    let mut covered = vec![false; m.rows.len()];
+    let mut gain: Vec<usize> = col_rows.iter().map(<[u32]>::len).collect();
+    let mut times = vec![0u32; m.rows.len()];
+    let mut picked = Vec::new();
+    let mut left = m.rows.len();
+    // Gains only fall, so a column whose recomputed ratio still tops the
+    // heap is the best (lazy evaluation). Positive floats order as their bits.
+    let key = |c: usize, gain: usize| (gain as f64 / price[c]).to_bits();
+    let mut heap: std::collections::BinaryHeap<(u64, std::cmp::Reverse<usize>)> = (0..gain.len())
+        .filter(|&c| gain[c] > 0)
+        .map(|c| (key(c, gain[c]), std::cmp::Reverse(c)))
+        .collect();
+    while left > 0 {
+        let Some((k, std::cmp::Reverse(c))) = heap.pop() else {
+            break;
+        };
+        if gain[c] == 0 {
+            continue;
+        }
+        let now = key(c, gain[c]);
+        if now != k {
+            heap.push((now, std::cmp::Reverse(c)));
+            continue;
+        }
+        picked.push(c);
+        for &r in &col_rows[c] {
+            times[r as usize] += 1;
+            if !covered[r as usize] {
+                covered[r as usize] = true;
+                left -= 1;
+                for &d in &m.rows[r as usize] {
+                    gain[d as usize] -= 1;
+                }
+            }
+        }
+    }
+    // Most expensive first: drop a column when every row it covers is covered twice.
+    picked.sort_by_key(|&c| std::cmp::Reverse(m.cost[c]));
+    let mut keep = Vec::new();
+    for c in picked {
+        if col_rows[c].iter().all(|&r| times[r as usize] > 1) {
+            for &r in &col_rows[c] {
+                times[r as usize] -= 1;
+            }
+        } else {
+            keep.push(c);
+        }
+    }
+    let cost = keep.iter().map(|&c| m.cost[c]).sum();
+    (cost, keep.into_iter().map(|c| m.id[c]).collect())
+}
+
+/// Local improvement of a cover (of column ids): a column outside it that holds every row that only chosen
+/// columns `S` cover alone replaces them all when that saves a term (two or
+/// more) or a literal (one, dearer), provided the other rows of `S` stay
+/// covered.
+fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
+    let cols = m.cost.len();
+    let mut chosen = vec![false; cols];
+    let mut times = vec![0u32; m.rows.len()];
+    // Columns are numbered in the order of their ids.
+    for c in cover.iter().filter_map(|id| m.id.binary_search(id).ok()) {
+        chosen[c] = true;
+        for &r in &col_rows[c] {
+            times[r as usize] += 1;
+        }
+    }
+    let mut stamp = vec![usize::MAX; cols];
+    let mut hits = vec![0u32; cols];
+    let mut in_d = vec![usize::MAX; m.rows.len()];
+    for _ in 0..4 {
+        let mut changed = false;
+        for d in 0..cols {
+            if chosen[d] {
+                continue;
+            }
+            let mut candidates = Vec::new();
+            for &r in &col_rows[d] {
+                in_d[r as usize] = d;
+                if times[r as usize] != 1 {
+                    continue;
+                }
+                for &c in &m.rows[r as usize] {
+                    let c = c as usize;
+                    if chosen[c] {
+                        if stamp[c] != d {
+                            stamp[c] = d;
+                            hits[c] = 0;
+                            candidates.push(c);
+                        }
+                        hits[c] += 1;
+                    }
+                }
+            }
+            let replaced: Vec<usize> = candidates
+                .into_iter()
+                .filter(|&c| {
+                    let alone = col_rows[c]
+                        .iter()
+                        .filter(|&&r| times[r as usize] == 1)
+                        .count();
+                    alone as u32 == hits[c]
+                })
+                .collect();
+            let saves = match replaced.as_slice() {
+                [] => false,
+                [c] => m.cost[d] < m.cost[*c],
+                _ => true,
+            };
+            if !saves {
+                continue;
+            }
+            // Rows of the replaced columns outside `d` must keep a cover.
+            let mut rows_out = Vec::new();
+            for &c in &replaced {
+                for &r in &col_rows[c] {
+                    if in_d[r as usize] != d {
+                        rows_out.push(r as usize);
+                    }
+                }
+            }
+            rows_out.sort_unstable();
+            let mut ok = true;
+            let mut i = 0;
+            while i < rows_out.len() {
+                let j = rows_out[i..]
+                    .iter()
+                    .take_while(|&&r| r == rows_out[i])
+                    .count();
+                if times[rows_out[i]] as usize <= j {
+                    ok = false;
+                    break;
+                }
+                i += j;
+            }
+            if !ok {
+                continue;
+            }
+            for &c in &replaced {
+                chosen[c] = false;
+                for &r in &col_rows[c] {
+                    times[r as usize] -= 1;
+                }
+            }
+            chosen[d] = true;
+            for &r in &col_rows[d] {
+                times[r as usize] += 1;
+            }
+            changed = true;
+        }
+        if !changed {
+            break;
+        }
+    }
+    let keep: Vec<usize> = (0..cols).filter(|&c| chosen[c]).collect();
+    let cost = keep.iter().map(|&c| m.cost[c]).sum();
+    (cost, keep.into_iter().map(|c| m.id[c]).collect())
+}
+
+/// A lower bound on the cost of a cover, with what it was computed from.
+struct Bound {
+    /// Whole units of cost.
+    cost: u64,
+    /// The Lagrangian value with the true costs, in 1/SCALE units.
+    weighted: i64,
+    /// The Lagrangian value with every column costing one term, in
+    /// 1/SCALE units of a term's cost.
+    unit: i64,
+    /// Each column's reduced cost (true costs), in 1/SCALE units.
+    reduced: Vec<i64>,
+}
+
+impl Bound {
+    /// Whether every cover holding column `c`, whose literals cost `literals`,
+    /// costs at least `room` more.
+    fn excludes(&self, c: usize, literals: u64, term: u64, room: u64) -> bool {
+        let rc = self.reduced[c];
+        if rc > 0
+            && (self.weighted.max(0) as u64)
+                .div_ceil(SCALE as u64)
+                .saturating_add((rc / SCALE) as u64)
+                >= room
+        {
+            return true;
+        }
+        let unit_rc = rc - SCALE * literals as i64;
+        unit_rc > 0
+            && ((self.unit + unit_rc).max(0) as u64)
+                .div_ceil(SCALE as u64 * term)
+                .saturating_mul(term)
+                >= room
+    }
+}
+
+/// A lower bound on the cost of any cover of `m`, by Lagrangian relaxation
+/// of the covering constraints: for multipliers `u >= 0` on the rows, every
+/// cover costs at least `sum(u) + sum over columns of min(0, cost - u of
+/// its rows)`. The same multipliers against a cost of one term per column
+/// bound the number of terms, which is an integer: rounded up, times the
+/// cost of a term, that often bounds the cost better. Subgradient steps move
+/// `u` (kept in `m.mult`) towards the best bound, stopping early once it
+/// reaches `limit`; every few steps `primal` gets the reduced costs and
+/// returns the cost of the best cover known, which lowers the limit. The
+/// first guess is an independent set of rows (no two share a column), each
+/// row's multiplier its cheapest column.
+fn lagrange(
+    m: &mut Matrix,
+    col_rows: &Rows,
+    term: u64,
+    mut limit: u64,
+    steps: usize,
+    primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
+) -> Bound {
+    let (rows, cols) = (m.rows.len(), m.cost.len());
+    let scaled: Vec<i64> = m.cost.iter().map(|&c| c as i64 * SCALE).collect();
+    let literal_part: Vec<i64> = m
+        .cost
+        .iter()
+        .map(|&c| c.saturating_sub(term) as i64 * SCALE)
+        .collect();
+    let unit = SCALE as u64 * term;
+    // Whole units, rounded up: costs are integers.
+    let whole = |value: i64| -> u64 { (value.max(0) as u64).div_ceil(SCALE as u64) };
+    let evaluate = |u: &[i64], reduced: &mut Vec<i64>| -> (u64, i64, i64) {
+        reduced.clear();
+        reduced.extend(col_rows.start.windows(2).zip(&scaled).map(|(w, &c)| {
+            c - col_rows.entries[w[0] as usize..w[1] as usize]
+                .iter()
+                .map(|&r| u[r as usize])
+                .sum::<i64>()
+        }));
+        let total: i64 = u.iter().sum();
+        let weighted = total + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>();
+        let unit_value = total
+            + reduced
+                .iter()
+                .zip(&literal_part)
+                .map(|(&rc, &l)| (rc - l).min(0))
+                .sum::<i64>();
+        let terms = (unit_value.max(0) as u64).div_ceil(unit);
+        (
+            whole(weighted).max(terms.saturating_mul(term)),
+            weighted,
+            unit_value,
+        )
+    };
+    let mut independent = vec![0i64; rows];
+    {
+        let mut order: Vec<usize> = (0..rows).collect();
+        order.sort_by_key(|&r| m.rows[r].len());
+        let mut used = vec![false; cols];
+        for r in order {
+            if m.rows[r].iter().all(|&c| !used[c as usize]) {
+                for &c in &m.rows[r] {
+                    used[c as usize] = true;
+                }
+                independent[r] = m.rows[r]
+                    .iter()
+                    .map(|&c| scaled[c as usize])
+                    .min()
+                    .unwrap_or(0);
+            }
+        }
+    }
+    let mut reduced = Vec::with_capacity(cols);
+    let mut u = independent;
+    let mut best = evaluate(&u, &mut reduced);
+    let mut best_u = u.clone();
+    if m.mult.iter().any(|&x| x != 0) {
+        let warm = evaluate(&m.mult, &mut reduced);
+        if (warm.0, warm.1) > (best.0, best.1) {
+            best = warm;
+            best_u = m.mult.clone();
+            u = m.mult.clone();
+        }
+    }
+    let target = if limit == u64::MAX {
+        None
+    } else {
+        Some(limit as f64 * SCALE as f64)
+    };
+    let mut lambda = 1.0f64;
+    let mut stall = 0;
+    let mut value = evaluate(&u, &mut reduced).1;
+    let mut best_weighted = best.1;
+    let mut g: Vec<i64> = Vec::with_capacity(rows);
+    for step_index in 0..steps {
+        if step_index % PRIMAL_EVERY == PRIMAL_EVERY - 1 {
+            limit = limit.min(primal(m, &reduced));
+        }
+        if best.0 >= limit {
+            break;
+        }
+        // Subgradient: 1 minus how often each row is covered by the columns
+        // of negative reduced cost.
+        g.clear();
+        g.resize(rows, 1);
+        for (c, rs) in col_rows.iter().enumerate() {
+            if reduced[c] < 0 {
+                for &r in rs {
+                    g[r as usize] -= 1;
+                }
+            }
+        }
+        let norm: i64 = g.iter().map(|x| x * x).sum();
+        if norm == 0 {
+            break;
+        }
+        let goal = target.unwrap_or(value as f64 * 1.05 + SCALE as f64);
+        let step = lambda * (goal - value as f64).max(SCALE as f64) / norm as f64;
+        for (x, &gr) in u.iter_mut().zip(&g) {
+            *x = (*x + (step * gr as f64) as i64).max(0);
+        }
+        let now = evaluate(&u, &mut reduced);
+        let improved = now.1 > best_weighted;
+        best_weighted = best_weighted.max(now.1);
+        value = now.1;
+        if (now.0, now.1) > (best.0, best.1) {
+            best = now;
+            best_u.clone_from(&u);
+        }
+        if improved {
+            stall = 0;
+        } else {
+            stall += 1;
+            if stall >= 5 {
+                lambda /= 2.0;
+                stall = 0;
+                if lambda < 1e-3 {
+                    break;
+                }
+            }
+        }
+    }
+    let (cost, weighted, unit_value) = evaluate(&best_u, &mut reduced);
+    m.mult = best_u;
+    Bound {
+        cost,
+        weighted,
+        unit: unit_value,
+        reduced,
+    }
 }

@@ -1,7 +1,9 @@
 //! Exact minimization checked against outside references and an
 //! independent brute force. Sources are named beside each check.
 
-use implica_logic::{Budget, Cover, TruthTable, minimize_pos, minimize_sop, prime_implicants};
+use implica_logic::{
+    Budget, Cover, Cube, TruthTable, minimize_pos, minimize_sop, prime_implicants,
+};
 
 fn table(vars: usize, bits: u64) -> TruthTable {
     let mut t = TruthTable::zero(vars);
@@ -254,23 +256,116 @@ fn product_of_sums_by_the_complement() {
 fn a_cyclic_core_without_search_budget_is_not_claimed_minimal() {
     // f(A,B,C) = Σm(0, 1, 2, 5, 6, 7): every minterm is covered by two primes
     // and none is essential (a cyclic prime table; common textbook example).
+    // Its bound (six minterms, at most two per prime) proves 3 terms even
+    // without search.
     let on = TruthTable::from_minterms(3, &[0, 1, 2, 5, 6, 7]);
     let none = TruthTable::zero(3);
+    let no_search = Budget {
+        max_nodes: 0,
+        ..Budget::default()
+    };
     let exact = minimize_sop(&on, &none, &Budget::default()).unwrap();
     assert_eq!((exact.cover.len(), exact.primes), (3, 6));
     assert!(exact.proven_minimal);
-    let limited = minimize_sop(
-        &on,
-        &none,
-        &Budget {
-            max_nodes: 0,
-            ..Budget::default()
-        },
-    )
-    .unwrap();
-    assert!(!limited.proven_minimal);
-    assert!(limited.lower_bound <= limited.cover.len());
+    let limited = minimize_sop(&on, &none, &no_search).unwrap();
     assert_eq!(limited.cover.truth_table(), on);
+    assert_eq!(limited.cover.len(), 3);
+    // Random 8-input functions whose bound alone proves nothing: without
+    // search their result is a cover, never claimed minimal, with a bound
+    // below the minimum the full search proves.
+    let mut x = 0x1234_5678_9ABC_DEF1u64;
+    let mut unproven = 0;
+    for _ in 0..20 {
+        let mut on = TruthTable::zero(8);
+        for m in 0..256usize {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            on.set(m, x % 2 == 1);
+        }
+        let limited = minimize_sop(&on, &TruthTable::zero(8), &no_search).unwrap();
+        assert_eq!(limited.cover.truth_table(), on);
+        assert!(limited.lower_bound <= limited.cover.len());
+        let exact = minimize_sop(&on, &TruthTable::zero(8), &Budget::default()).unwrap();
+        assert!(exact.proven_minimal);
+        assert!(limited.lower_bound <= exact.cover.len());
+        assert!(exact.cover.len() <= limited.cover.len());
+        if !limited.proven_minimal {
+            unproven += 1;
+        } else {
+            assert_eq!(limited.cover.len(), exact.cover.len());
+            assert_eq!(limited.cover.literals(), exact.cover.literals());
+        }
+    }
+    assert!(unproven > 0);
+}
+
+/// The least (terms, literals) cover, by a plain depth-first search over the
+/// primes of [`brute_primes`] covering the first uncovered minterm; a branch
+/// ends when even the largest prime could not cover the rest in time.
+fn reference_minimum(on: &TruthTable, dc: &TruthTable) -> (usize, usize) {
+    let vars = on.vars();
+    let mask = |t: &TruthTable| t.minterms().iter().fold(0u64, |acc, &m| acc | 1 << m);
+    let primes: Vec<(u64, usize)> = brute_primes(on, dc)
+        .iter()
+        .map(|c| (mask(&c.truth_table(vars)), c.literals(vars)))
+        .collect();
+    let need = mask(&on.and_not(dc));
+    let widest = primes.iter().map(|p| p.0.count_ones()).max().unwrap_or(1);
+    fn search(
+        primes: &[(u64, usize)],
+        widest: u32,
+        left: u64,
+        used: (usize, usize),
+        best: &mut (usize, usize),
+    ) {
+        if left == 0 {
+            *best = (*best).min(used);
+            return;
+        }
+        if used.0 + left.count_ones().div_ceil(widest) as usize > best.0 {
+            return;
+        }
+        let first = left.trailing_zeros();
+        for &(p, l) in primes.iter().filter(|p| p.0 >> first & 1 == 1) {
+            let next = (used.0 + 1, used.1 + l);
+            if next < *best {
+                search(primes, widest, left & !p, next, best);
+            }
+        }
+    }
+    let mut best = (usize::MAX, usize::MAX);
+    search(&primes, widest, need, (0, 0), &mut best);
+    if need == 0 { (0, 0) } else { best }
+}
+
+#[test]
+fn five_and_six_input_functions_match_a_plain_search() {
+    let mut x = 0xD1B5_4A32_D192_ED03u64;
+    for (vars, count) in [(5usize, 300), (6, 40)] {
+        for _ in 0..count {
+            let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+            for m in 0..(1usize << vars) {
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                match x % 8 {
+                    0..=3 => on.set(m, true),
+                    4 => dc.set(m, true),
+                    _ => {}
+                }
+            }
+            let r = minimize_sop(&on, &dc, &Budget::default()).unwrap();
+            assert!(r.proven_minimal);
+            let f = r.cover.truth_table();
+            assert!(f.covers(&on.and_not(&dc)) && on.or(&dc).covers(&f));
+            assert_eq!(
+                (r.cover.len(), r.cover.literals()),
+                reference_minimum(&on, &dc),
+                "{on:?} {dc:?}"
+            );
+        }
+    }
 }
 
 #[test]
@@ -289,4 +384,146 @@ fn constants() {
     assert!(zero.cover.is_empty() && zero.proven_minimal);
     let one = minimize_sop(&TruthTable::one(3), &none, &Budget::default()).unwrap();
     assert_eq!((one.cover.len(), one.cover.literals()), (1, 0));
+}
+
+/// Every prime implicant by enumerating all 3^n cubes: a cube is prime when
+/// it lies inside `on | dc` and no cube with one literal fewer does, and it
+/// is reported when it holds a minterm of `on` outside `dc` (the definition;
+/// common practice).
+fn brute_primes(on: &TruthTable, dc: &TruthTable) -> Vec<Cube> {
+    let vars = on.vars();
+    let care = on.or(dc);
+    let need = on.and_not(dc);
+    let inside = |value: usize, free: usize| {
+        (0..(1usize << vars)).all(|m| m & !free != value || care.get(m))
+    };
+    let mut out = Vec::new();
+    for free in 0..(1usize << vars) {
+        for value in 0..(1usize << vars) {
+            if value & free != 0 || !inside(value, free) {
+                continue;
+            }
+            let grows =
+                (0..vars).any(|b| free >> b & 1 == 0 && inside(value & !(1 << b), free | 1 << b));
+            let useful = (0..(1usize << vars)).any(|m| m & !free == value && need.get(m));
+            if grows || !useful {
+                continue;
+            }
+            let mut cube = Cube::universe(vars);
+            for i in 0..vars {
+                let b = vars - 1 - i;
+                if free >> b & 1 == 0 {
+                    cube = cube.and(&Cube::literal(vars, i, value >> b & 1 == 1));
+                }
+            }
+            out.push(cube);
+        }
+    }
+    out.sort();
+    out
+}
+
+#[test]
+fn prime_implicants_equal_an_enumeration_of_every_cube() {
+    let mut x = 0x9E37_79B9_7F4A_7C15u64;
+    for vars in 0..=8usize {
+        for density in [2u64, 5, 7] {
+            for _ in 0..4 {
+                let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+                for m in 0..(1usize << vars) {
+                    x ^= x << 13;
+                    x ^= x >> 7;
+                    x ^= x << 17;
+                    match x % 8 {
+                        k if k < density => on.set(m, true),
+                        k if k == density => dc.set(m, true),
+                        _ => {}
+                    }
+                }
+                let mut got = prime_implicants(&on, &dc, &Budget::default())
+                    .unwrap()
+                    .cubes;
+                got.sort();
+                assert_eq!(got, brute_primes(&on, &dc), "{vars} inputs: {on:?} {dc:?}");
+            }
+        }
+    }
+}
+
+#[test]
+fn prime_budget_counts_primes() {
+    // 8-input parity has 128 primes (its minterms; see parity_needs_every_minterm).
+    let mut odd = TruthTable::zero(8);
+    for m in 0..256usize {
+        odd.set(m, m.count_ones() % 2 == 1);
+    }
+    let none = TruthTable::zero(8);
+    let budget = |max_primes| Budget {
+        max_primes,
+        ..Budget::default()
+    };
+    assert_eq!(
+        prime_implicants(&odd, &none, &budget(128)).unwrap().len(),
+        128
+    );
+    let err = prime_implicants(&odd, &none, &budget(127)).unwrap_err();
+    assert!(
+        err.reason.contains("127 prime implicants"),
+        "{}",
+        err.reason
+    );
+}
+
+#[test]
+fn on_set_and_dont_cares_over_different_inputs_is_a_clear_outcome() {
+    let (on, dc) = (TruthTable::var(3, 0), TruthTable::zero(4));
+    for r in [
+        minimize_sop(&on, &dc, &Budget::default()),
+        minimize_pos(&on, &dc, &Budget::default()),
+    ] {
+        let err = r.unwrap_err();
+        assert!(
+            err.reason.contains("3 inputs") && err.reason.contains("4"),
+            "{}",
+            err.reason
+        );
+    }
+}
+
+#[test]
+fn functions_of_no_inputs() {
+    let (one, zero) = (TruthTable::one(0), TruthTable::zero(0));
+    let r = minimize_sop(&one, &zero, &Budget::default()).unwrap();
+    assert_eq!((r.cover.len(), r.cover.literals(), r.primes), (1, 0, 1));
+    assert!(r.proven_minimal);
+    let r = minimize_sop(&zero, &one, &Budget::default()).unwrap();
+    assert!(r.cover.is_empty() && r.proven_minimal);
+}
+
+#[test]
+fn larger_random_functions_get_valid_covers_and_bounds() {
+    // Past what the search proves, the result is still a cover of the
+    // function by prime implicants, no larger than one term per required
+    // minterm, with a lower bound no larger than it.
+    let mut x = 0x0123_4567_89AB_CDEFu64;
+    for vars in [10usize, 10, 12] {
+        let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+        for m in 0..(1usize << vars) {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            match x % 8 {
+                0..=2 => on.set(m, true),
+                3 | 4 => dc.set(m, true),
+                _ => {}
+            }
+        }
+        let r = minimize_sop(&on, &dc, &Budget::default()).unwrap();
+        let f = r.cover.truth_table();
+        assert!(f.covers(&on.and_not(&dc)) && on.or(&dc).covers(&f));
+        assert!(r.lower_bound <= r.cover.len());
+        assert!(r.cover.len() <= on.and_not(&dc).count_ones());
+        let primes = prime_implicants(&on, &dc, &Budget::default()).unwrap();
+        assert!(r.cover.cubes.iter().all(|c| primes.cubes.contains(c)));
+    }
 }

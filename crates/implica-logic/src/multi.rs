@@ -1,0 +1,304 @@
+//! Multi-output minimization: several functions of the same inputs, each
+//! with its own don't-cares, as sums of products drawing on one shared set
+//! of product terms (as in a programmable logic array, where a term is
+//! built once and may feed every output).
+//!
+//! Cost: fewest distinct product terms, then fewest literals over the
+//! distinct terms (each term's literals counted once, however many outputs
+//! use it). The columns of the cover search are the multi-output prime
+//! implicants: for every set of outputs, the primes of the product of their
+//! care sets, each tagged with every output it lies inside. A minimum
+//! solution needs no other terms, since any term can grow to such a prime
+//! without losing an output or gaining a literal.
+
+use crate::minimize::{Implicant, MAX_MATRIX, primes_of, solve_cover};
+use crate::{Budget, Cover, Cube, TooLarge, TruthTable, minimize_sop};
+use std::collections::HashSet;
+
+/// Most outputs minimized together (the prime generation visits sets of
+/// outputs).
+pub const MAX_OUTPUTS: usize = 16;
+
+/// Several outputs minimized together, with the certificate.
+#[derive(Debug, Clone)]
+pub struct MultiMinimized {
+    /// Inputs of every output.
+    pub vars: usize,
+    /// The distinct product terms, ascending.
+    pub terms: Vec<Cube>,
+    /// For each output, the indices in `terms` of the terms it sums.
+    pub uses: Vec<Vec<usize>>,
+    /// Whether no solution has fewer distinct terms, or as many and fewer
+    /// literals.
+    pub proven_minimal: bool,
+    /// Fewest distinct terms any solution needs, as proven (equals
+    /// `terms.len()` when `proven_minimal`).
+    pub lower_bound: usize,
+    /// Number of multi-output prime implicants.
+    pub primes: usize,
+    /// Terms of the outputs minimized one at a time, summed over outputs.
+    pub separate_terms: usize,
+    /// Literals of the outputs minimized one at a time, summed over outputs.
+    pub separate_literals: usize,
+}
+
+impl MultiMinimized {
+    /// The sum of products of output `output`.
+    pub fn cover(&self, output: usize) -> Cover {
+        Cover {
+            vars: self.vars,
+            cubes: self.uses[output].iter().map(|&t| self.terms[t]).collect(),
+        }
+    }
+
+    /// Literals over the distinct terms.
+    pub fn literals(&self) -> usize {
+        self.terms.iter().map(|c| c.literals(self.vars)).sum()
+    }
+
+    /// Indices in `terms` of the terms used by more than one output.
+    pub fn shared(&self) -> Vec<usize> {
+        let mut count = vec![0usize; self.terms.len()];
+        for uses in &self.uses {
+            for &t in uses {
+                count[t] += 1;
+            }
+        }
+        (0..self.terms.len()).filter(|&t| count[t] > 1).collect()
+    }
+}
+
+fn refuse(reason: String, outputs: &[(TruthTable, TruthTable)]) -> TooLarge {
+    TooLarge {
+        reason,
+        vars: outputs.first().map_or(0, |o| o.0.vars()),
+        on_set: outputs
+            .iter()
+            .map(|(on, dc)| on.and_not(dc).count_ones())
+            .sum(),
+    }
+}
+
+/// Minimizes the outputs `(on, dc)` together: output `i` must be 1 on
+/// `on_i` outside `dc_i`, 0 outside `on_i | dc_i`, and is free on `dc_i`.
+/// Each output is first minimized alone (for the comparison and a bound),
+/// then the shared cover is searched; each of these gets the whole budget,
+/// except `max_primes`, which counts the primes of every set of outputs
+/// together.
+pub fn minimize_multi(
+    outputs: &[(TruthTable, TruthTable)],
+    budget: &Budget,
+) -> Result<MultiMinimized, TooLarge> {
+    let vars = outputs.first().map_or(0, |o| o.0.vars());
+    if outputs.len() > MAX_OUTPUTS {
+        return Err(refuse(
+            format!(
+                "{} outputs, more than the {MAX_OUTPUTS} minimized together",
+                outputs.len()
+            ),
+            outputs,
+        ));
+    }
+    if outputs
+        .iter()
+        .any(|(on, dc)| on.vars() != vars || dc.vars() != vars)
+    {
+        return Err(refuse("outputs over different inputs".to_string(), outputs));
+    }
+    // Each output alone: the comparison, and a bound (every output needs
+    // its own minimum of distinct terms).
+    let mut separate = Vec::with_capacity(outputs.len());
+    for (on, dc) in outputs {
+        separate.push(minimize_sop(on, dc, budget)?);
+    }
+    let care: Vec<TruthTable> = outputs.iter().map(|(on, dc)| on.or(dc)).collect();
+    let need: Vec<TruthTable> = outputs.iter().map(|(on, dc)| on.and_not(dc)).collect();
+
+    // Primes of the product of every set of outputs' care sets, depth first
+    // over the sets; an empty product ends a branch.
+    let mut found: HashSet<Implicant> = HashSet::new();
+    let mut columns: Vec<Implicant> = Vec::new();
+    let mut generated = 0usize;
+    let mut stack: Vec<(usize, TruthTable, TruthTable)> = Vec::new();
+    for i in 0..outputs.len() {
+        stack.push((i, care[i].clone(), need[i].clone()));
+    }
+    while let Some((last, product, wanted)) = stack.pop() {
+        let wanted = wanted.and(&product);
+        if !wanted.is_zero() {
+            let left = Budget {
+                max_primes: budget.max_primes.saturating_sub(generated),
+                ..budget.clone()
+            };
+            let primes = primes_of(&wanted, &product.and_not(&wanted), &left).map_err(|_| {
+                refuse(
+                    format!(
+                        "more than {} prime implicants over the sets of outputs",
+                        budget.max_primes
+                    ),
+                    outputs,
+                )
+            })?;
+            generated += primes.len();
+            for p in primes {
+                if found.insert(p) {
+                    columns.push(p);
+                }
+            }
+        }
+        for next in last + 1..outputs.len() {
+            let narrower = product.and(&care[next]);
+            if !narrower.is_zero() {
+                stack.push((next, narrower, wanted.or(&need[next])));
+            }
+        }
+    }
+    columns.sort();
+
+    // Rows: (output, required minterm). A column covers the rows of every
+    // output whose care set holds it.
+    let mut row_base = Vec::with_capacity(outputs.len());
+    let mut rows_of_output: Vec<Vec<u32>> = Vec::with_capacity(outputs.len());
+    let mut total_rows = 0usize;
+    for n in &need {
+        let mut index = vec![u32::MAX; 1usize << vars];
+        for (k, m) in n.minterms().into_iter().enumerate() {
+            index[m] = (total_rows + k) as u32;
+        }
+        row_base.push(total_rows);
+        total_rows += n.count_ones();
+        rows_of_output.push(index);
+    }
+    let entries: u64 = columns
+        .iter()
+        .map(|p| (1u64 << p.free.count_ones()) * outputs.len() as u64)
+        .sum();
+    if entries > MAX_MATRIX {
+        return Err(refuse(
+            format!("a covering matrix of more than {MAX_MATRIX} entries"),
+            outputs,
+        ));
+    }
+    let serves: Vec<Vec<usize>> = columns
+        .iter()
+        .map(|p| {
+            (0..outputs.len())
+                .filter(|&i| p.minterms().all(|m| care[i].get(m)))
+                .collect()
+        })
+        .collect();
+    let mut rows = vec![Vec::new(); total_rows];
+    for (c, p) in columns.iter().enumerate() {
+        for &i in &serves[c] {
+            for m in p.minterms() {
+                let r = rows_of_output[i][m];
+                if r != u32::MAX {
+                    rows[r as usize].push(c as u32);
+                }
+            }
+        }
+    }
+    let literals: Vec<u64> = columns
+        .iter()
+        .map(|p| (vars - p.free.count_ones() as usize) as u64)
+        .collect();
+    let solution = solve_cover(rows, &literals, vars, budget);
+
+    let chosen: Vec<Cube> = solution
+        .columns
+        .iter()
+        .map(|&c| columns[c].to_cube(vars))
+        .collect();
+    let mut result = assemble(vars, chosen, &need, &care);
+    let lower = separate
+        .iter()
+        .map(|s| s.lower_bound)
+        .max()
+        .unwrap_or(0)
+        .max(solution.lower_bound_terms);
+    result.proven_minimal = solution.proven;
+    result.primes = columns.len();
+    result.separate_terms = separate.iter().map(|s| s.cover.len()).sum();
+    result.separate_literals = separate.iter().map(|s| s.cover.literals()).sum();
+    // A search cut short may do worse than the separate covers put
+    // together; never return that.
+    let mut union: Vec<Cube> = separate
+        .iter()
+        .flat_map(|s| s.cover.cubes.clone())
+        .collect();
+    union.sort();
+    union.dedup();
+    let pooled = assemble(vars, union, &need, &care);
+    if (pooled.terms.len(), pooled.literals()) < (result.terms.len(), result.literals()) {
+        result.terms = pooled.terms;
+        result.uses = pooled.uses;
+    }
+    result.lower_bound = if result.proven_minimal {
+        result.terms.len()
+    } else {
+        lower.min(result.terms.len())
+    };
+    Ok(result)
+}
+
+/// The solution of the given distinct terms: each output sums the terms
+/// inside its care set, less those the others already make redundant for it.
+fn assemble(
+    vars: usize,
+    mut terms: Vec<Cube>,
+    need: &[TruthTable],
+    care: &[TruthTable],
+) -> MultiMinimized {
+    terms.sort();
+    let tables: Vec<TruthTable> = terms.iter().map(|c| c.truth_table(vars)).collect();
+    let mut uses = Vec::with_capacity(need.len());
+    for (n, k) in need.iter().zip(care) {
+        let mut used: Vec<usize> = (0..terms.len())
+            .filter(|&t| k.covers(&tables[t]) && !tables[t].and(n).is_zero())
+            .collect();
+        // Drop terms whose required minterms the output's other terms cover,
+        // most literals first.
+        let mut order = used.clone();
+        order.sort_by_key(|&t| std::cmp::Reverse(terms[t].literals(vars)));
+        for t in order {
+            let others = used
+                .iter()
+                .filter(|&&u| u != t)
+                .fold(TruthTable::zero(vars), |acc, &u| acc.or(&tables[u]));
+            if others.covers(n) {
+                used.retain(|&u| u != t);
+            }
+        }
+        uses.push(used);
+    }
+    // Terms no output uses are not part of the solution.
+    let mut keep = vec![false; terms.len()];
+    for u in &uses {
+        for &t in u {
+            keep[t] = true;
+        }
+    }
+    let mut renumber = vec![usize::MAX; terms.len()];
+    let mut kept = Vec::new();
+    for t in 0..terms.len() {
+        if keep[t] {
+            renumber[t] = kept.len();
+            kept.push(terms[t]);
+        }
+    }
+    for u in &mut uses {
+        for t in u.iter_mut() {
+            *t = renumber[*t];
+        }
+    }
+    MultiMinimized {
+        vars,
+        terms: kept,
+        uses,
+        proven_minimal: false,
+        lower_bound: 0,
+        primes: 0,
+        separate_terms: 0,
+        separate_literals: 0,
+    }
+}
