@@ -330,6 +330,15 @@ pub(crate) fn check_matrix(
 
 /// All prime implicants of the function that is 1 on `on`, free on `dc`,
 /// that cover at least one minterm of `on` outside `dc`.
+///
+/// ```
+/// use implica_logic::{Budget, TruthTable, prime_implicants};
+/// // The worked example of the Wikipedia article "Quine–McCluskey
+/// // algorithm": Σm(4, 8, 10, 11, 12, 15) + d(9, 14) has 4 primes.
+/// let on = TruthTable::from_minterms(4, &[4, 8, 10, 11, 12, 15]);
+/// let dc = TruthTable::from_minterms(4, &[9, 14]);
+/// assert_eq!(prime_implicants(&on, &dc, &Budget::default()).unwrap().len(), 4);
+/// ```
 pub fn prime_implicants(
     on: &TruthTable,
     dc: &TruthTable,
@@ -392,6 +401,17 @@ pub fn minimize_sop(
 /// The minimal product of sums, as the minimal sum of products of the
 /// complement: each cube `c` of the returned cover stands for the sum term
 /// of `c`'s literals negated, and the function is the product of those sums.
+///
+/// ```
+/// use implica_logic::{BoolExpr, Budget, TruthTable, minimize_pos};
+/// // The carry of a full adder over (a, b, c) is (a | b) & (a | c) & (b | c)
+/// // (common practice).
+/// let carry = TruthTable::from_minterms(3, &[3, 5, 6, 7]);
+/// let mut m = minimize_pos(&carry, &TruthTable::zero(3), &Budget::default()).unwrap();
+/// m.cover.sort_for_reading();
+/// let text = BoolExpr::from_complement_cover(&m.cover).to_text(&|i| ["a", "b", "c"][i].into());
+/// assert_eq!(text, "(a | b) & (a | c) & (b | c)");
+/// ```
 pub fn minimize_pos(
     on: &TruthTable,
     dc: &TruthTable,

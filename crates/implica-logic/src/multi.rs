@@ -10,6 +10,19 @@
 //! care sets, each tagged with every output it lies inside. A minimum
 //! solution needs no other terms, since any term can grow to such a prime
 //! without losing an output or gaining a literal.
+//!
+//! ```
+//! use implica_logic::{Budget, TruthTable, minimize_multi};
+//! // Over (a, b, c): x = a&b | !a&c (rows 1, 3, 6, 7) and y = a&b | b&c
+//! // (rows 3, 6, 7). Alone they take 2 + 2 terms; together a&b is built once.
+//! let none = TruthTable::zero(3);
+//! let x = TruthTable::from_minterms(3, &[1, 3, 6, 7]);
+//! let y = TruthTable::from_minterms(3, &[3, 6, 7]);
+//! let m = minimize_multi(&[(x, none.clone()), (y, none)], &Budget::default()).unwrap();
+//! assert!(m.proven_minimal);
+//! assert_eq!((m.terms.len(), m.separate_terms), (3, 4));
+//! assert_eq!(m.shared().len(), 1);
+//! ```
 
 use crate::minimize::{Implicant, MAX_MATRIX, primes_of, solve_cover};
 use crate::{Budget, Cover, Cube, TooLarge, TruthTable, minimize_sop};
