@@ -11,6 +11,7 @@
 //! this crate returns; every rule lives here, one file per rule under
 //! `rules/`, with its documentation as the file's doc comment.
 
+pub mod fixes;
 pub mod functions;
 pub mod minimal;
 pub mod model;
@@ -84,13 +85,67 @@ pub struct Diagnostic {
     pub fixes: Vec<Fix>,
 }
 
-/// Checks one document's text.
+/// Checks one document's text: syntax errors, then every semantic rule.
+/// Fixes that do not pass [`fixes::verify`] are dropped.
 pub fn check_source(src: &str) -> Vec<Diagnostic> {
-    let (_, errors) = implica_syntax::parse(src);
-    errors
+    analyze(src).diagnostics
+}
+
+/// The findings of one document, and any internal errors met on the way.
+#[derive(Debug, Default)]
+pub struct Analysis {
+    /// Sorted by position.
+    pub diagnostics: Vec<Diagnostic>,
+    /// Fixes a rule offered that failed their proof, described: a bug in
+    /// that rule, never shown as a fix.
+    pub internal_errors: Vec<String>,
+}
+
+/// Checks one document's text, reporting internal errors too.
+pub fn analyze(src: &str) -> Analysis {
+    let (file, errors) = implica_syntax::parse(src);
+    let mut diagnostics: Vec<Diagnostic> = errors
         .into_iter()
         .map(rules::syntax_error::diagnostic)
-        .collect()
+        .collect();
+    let model = model::Model::build(&file);
+    let Ok(mut functions) =
+        functions::Functions::compute(&model, functions::DEFAULT_WORK_PER_DEFINITION, None)
+    else {
+        return Analysis {
+            diagnostics,
+            internal_errors: Vec::new(),
+        };
+    };
+    let mut cx = rules::Ctx {
+        src,
+        has_syntax_errors: !diagnostics.is_empty(),
+        model: &model,
+        functions: &mut functions,
+    };
+    let mut found = Vec::new();
+    for check in rules::CHECKS {
+        check(&mut cx, &mut found);
+    }
+    let mut internal_errors = Vec::new();
+    for d in &mut found {
+        d.fixes.retain(|fix| match fixes::verify(src, fix) {
+            Ok(_) => true,
+            Err(why) => {
+                internal_errors.push(format!(
+                    "{}: the fix \"{}\" was withheld: {why}",
+                    d.rule, fix.title
+                ));
+                false
+            }
+        });
+    }
+    diagnostics.extend(found);
+    diagnostics.sort_by_key(|d| (d.span.start, d.span.end));
+    Analysis {
+        diagnostics,
+        internal_errors,
+    }
 }
 
 /// Checks raw bytes: invalid UTF-8 is reported (with its byte offset) and

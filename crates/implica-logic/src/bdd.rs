@@ -450,6 +450,44 @@ impl Bdd {
         Ok(r)
     }
 
+    /// Copies function `f` of the manager `from` into this one, renaming
+    /// variable `v` to `rename(v)`. `None` when `f` depends on a variable
+    /// that has no new name. The renaming must keep the variable order
+    /// (`v < w` implies `rename(v) < rename(w)`) so that the copy stays
+    /// reduced and ordered.
+    pub fn transfer(
+        &mut self,
+        from: &Bdd,
+        f: BddRef,
+        rename: &dyn Fn(usize) -> Option<usize>,
+        effort: &mut Effort,
+    ) -> Result<Option<BddRef>, Interrupted> {
+        let mut memo: HashMap<u32, u32> = HashMap::new();
+        // Depth-first, children before parents, without recursion.
+        let mut stack = vec![(f.0, false)];
+        while let Some((n, expanded)) = stack.pop() {
+            if n <= 1 || memo.contains_key(&n) {
+                continue;
+            }
+            let node = from.nodes[n as usize];
+            if !expanded {
+                stack.push((n, true));
+                stack.push((node.lo, false));
+                stack.push((node.hi, false));
+                continue;
+            }
+            effort.spend(1)?;
+            let Some(var) = rename(node.var as usize).filter(|&v| v < self.vars) else {
+                return Ok(None);
+            };
+            let child = |c: u32, memo: &HashMap<u32, u32>| if c <= 1 { c } else { memo[&c] };
+            let (lo, hi) = (child(node.lo, &memo), child(node.hi, &memo));
+            let r = self.mk(var as u32, lo, hi)?;
+            memo.insert(n, r);
+        }
+        Ok(Some(BddRef(if f.0 <= 1 { f.0 } else { memo[&f.0] })))
+    }
+
     /// The truth table of `f` over the variables `order` (at most
     /// [`crate::MAX_VARS`]; `order[0]` becomes the most significant), other
     /// variables at 0. Exact when `f` depends on no variable outside `order`.

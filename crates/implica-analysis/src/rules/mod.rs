@@ -1,9 +1,19 @@
 //! The rules. Each rule is one file whose doc comment is its documentation,
 //! shown by `implica explain RULE`.
 
+pub mod cyclic_definition;
+pub mod duplicate_definition;
 pub mod syntax_error;
+pub mod undeclared_assignment;
+pub mod undefined_output;
+pub mod undefined_signal;
+pub mod unused_input;
+pub mod unused_signal;
 
-use crate::Severity;
+use crate::functions::Functions;
+use crate::model::Model;
+use crate::{Diagnostic, Severity};
+use implica_syntax::Span;
 
 /// A rule's identity and documentation.
 #[derive(Debug, Clone, Copy)]
@@ -33,7 +43,78 @@ impl Rule {
 }
 
 /// Every rule, in the order `implica rules` lists them.
-pub const ALL: &[Rule] = &[syntax_error::RULE];
+pub const ALL: &[Rule] = &[
+    syntax_error::RULE,
+    undefined_signal::RULE,
+    duplicate_definition::RULE,
+    undefined_output::RULE,
+    undeclared_assignment::RULE,
+    unused_input::RULE,
+    unused_signal::RULE,
+    cyclic_definition::RULE,
+];
+
+/// What a rule sees of one document.
+pub struct Ctx<'a, 'f> {
+    pub src: &'a str,
+    /// Whether the text has syntax errors: rules that report something
+    /// missing ("never read") stay quiet then, since the statement that
+    /// did not parse may be the one that reads it.
+    pub has_syntax_errors: bool,
+    pub model: &'a Model<'f>,
+    pub functions: &'a mut Functions,
+}
+
+/// The semantic rules, run in order on one document.
+pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
+    undefined_signal::check,
+    duplicate_definition::check,
+    undefined_output::check,
+    undeclared_assignment::check,
+    unused_input::check,
+    unused_signal::check,
+    cyclic_definition::check,
+];
+
+impl Rule {
+    /// A diagnostic of this rule at its default severity.
+    pub(crate) fn at(&self, span: Span, message: String) -> Diagnostic {
+        Diagnostic {
+            rule: self.name,
+            severity: self.default_severity,
+            message,
+            span,
+            help: None,
+            related: Vec::new(),
+            fixes: Vec::new(),
+        }
+    }
+}
+
+/// The span from `span` through the end of its line's trailing spaces and
+/// line break, for deleting a whole statement without leaving a blank line;
+/// when a comment follows on the line, only up to the comment, so that it
+/// stays.
+pub(crate) fn statement_line(src: &str, span: Span) -> Span {
+    let rest = &src[span.end..];
+    let line_end = rest.find('\n').map_or(src.len(), |i| span.end + i);
+    let tail = &src[span.end..line_end];
+    if tail.trim().is_empty() {
+        let start = src[..span.start].rfind('\n').map_or(0, |i| i + 1);
+        let before = &src[start..span.start];
+        let end = if line_end < src.len() {
+            line_end + 1
+        } else {
+            line_end
+        };
+        if before.trim().is_empty() {
+            return Span::new(start, end);
+        }
+        return Span::new(span.start, line_end);
+    }
+    let code_end = span.end + (tail.len() - tail.trim_start().len());
+    Span::new(span.start, code_end)
+}
 
 /// The rule named `name`.
 pub fn find(name: &str) -> Option<&'static Rule> {

@@ -1,0 +1,223 @@
+//! One fixture per rule under `tests/fixtures/rules/`, named after the rule:
+//! every diagnostic with its exact range, help, related places and fixes,
+//! as an insta snapshot. Every fix of every fixture and example is applied:
+//! the result parses, the fix was proven equivalent (it was offered at
+//! all), and the diagnostic it fixes is gone; applying all safe fixes of a
+//! file at once converges in one pass.
+
+use implica_analysis::{Applicability, Diagnostic, analyze, fixes, rules};
+use implica_syntax::LineIndex;
+use std::path::{Path, PathBuf};
+
+fn root() -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
+}
+
+fn imp_files(dir: &Path) -> Vec<PathBuf> {
+    let mut v: Vec<PathBuf> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|e| e == "imp"))
+        .collect();
+    v.sort();
+    v
+}
+
+fn position(index: &LineIndex, src: &str, offset: usize) -> String {
+    let p = index.line_col(src, offset);
+    format!("{}:{}", p.line + 1, p.col + 1)
+}
+
+fn render(src: &str, diags: &[Diagnostic]) -> String {
+    let index = LineIndex::new(src);
+    let mut out = String::new();
+    for d in diags {
+        out.push_str(&format!(
+            "{}-{} {} {}: {}\n",
+            position(&index, src, d.span.start),
+            position(&index, src, d.span.end),
+            d.severity.as_str(),
+            d.rule,
+            d.message
+        ));
+        if let Some(h) = &d.help {
+            out.push_str(&format!("    help: {h}\n"));
+        }
+        for r in &d.related {
+            out.push_str(&format!(
+                "    related {}-{}: {}\n",
+                position(&index, src, r.span.start),
+                position(&index, src, r.span.end),
+                r.message
+            ));
+        }
+        for f in &d.fixes {
+            let kind = match f.applicability {
+                Applicability::Safe => "safe",
+                Applicability::NeedsReview => "review",
+            };
+            out.push_str(&format!("    fix ({kind}): {}\n", f.title));
+            let after = fixes::apply(src, &f.edits).unwrap();
+            for line in diff_lines(src, &after) {
+                out.push_str(&format!("        {line}\n"));
+            }
+        }
+    }
+    out
+}
+
+/// The changed lines, as `- old` and `+ new`.
+fn diff_lines(before: &str, after: &str) -> Vec<String> {
+    let (a, b): (Vec<&str>, Vec<&str>) = (before.lines().collect(), after.lines().collect());
+    let prefix = a.iter().zip(&b).take_while(|(x, y)| x == y).count();
+    let suffix = a[prefix..]
+        .iter()
+        .rev()
+        .zip(b[prefix..].iter().rev())
+        .take_while(|(x, y)| x == y)
+        .count();
+    let mut out = Vec::new();
+    for l in &a[prefix..a.len() - suffix] {
+        out.push(format!("- {l}"));
+    }
+    for l in &b[prefix..b.len() - suffix] {
+        out.push(format!("+ {l}"));
+    }
+    out
+}
+
+/// Every fix: parses, and the diagnostic it fixes (same rule, same
+/// message) is gone.
+fn check_fixes(name: &str, src: &str, diags: &[Diagnostic]) {
+    for d in diags {
+        for f in &d.fixes {
+            let after = fixes::verify(src, f)
+                .unwrap_or_else(|e| panic!("{name}: fix \"{}\" fails its proof: {e}", f.title));
+            let again = analyze(&after);
+            assert!(
+                again.internal_errors.is_empty(),
+                "{name}: {:?}",
+                again.internal_errors
+            );
+            assert!(
+                !again
+                    .diagnostics
+                    .iter()
+                    .any(|x| x.rule == d.rule && x.message == d.message),
+                "{name}: fix \"{}\" leaves `{}: {}`",
+                f.title,
+                d.rule,
+                d.message
+            );
+        }
+    }
+    // All safe fixes together, once: none of their diagnostics is left.
+    let safe: Vec<_> = diags
+        .iter()
+        .filter_map(|d| {
+            d.fixes
+                .iter()
+                .find(|f| f.applicability == Applicability::Safe)
+                .map(|f| (d, f))
+        })
+        .collect();
+    let edits: Vec<_> = safe.iter().flat_map(|(_, f)| f.edits.clone()).collect();
+    if let Ok(after) = fixes::apply(src, &edits) {
+        let again = analyze(&after);
+        for (d, _) in &safe {
+            assert!(
+                !again
+                    .diagnostics
+                    .iter()
+                    .any(|x| x.rule == d.rule && x.message == d.message),
+                "{name}: after all safe fixes, `{}: {}` is still there",
+                d.rule,
+                d.message
+            );
+        }
+    }
+}
+
+#[test]
+fn rule_fixtures() {
+    let dir = root().join("tests/fixtures/rules");
+    let files = imp_files(&dir);
+    for path in &files {
+        let name = path.file_stem().unwrap().to_string_lossy().to_string();
+        let src = std::fs::read_to_string(path).unwrap();
+        let a = analyze(&src);
+        assert!(
+            a.internal_errors.is_empty(),
+            "{name}: {:?}",
+            a.internal_errors
+        );
+        assert!(
+            rules::find(&name).is_some(),
+            "{name}: a fixture is named after its rule"
+        );
+        assert!(
+            a.diagnostics.iter().any(|d| d.rule == name),
+            "{name}: the fixture must make its rule fire"
+        );
+        check_fixes(&name, &src, &a.diagnostics);
+        insta::with_settings!({ description => src.clone(), omit_expression => true }, {
+            insta::assert_snapshot!(name.clone(), render(&src, &a.diagnostics));
+        });
+    }
+    // Every rule but `syntax-error` (whose fixtures are the syntax ones) has one.
+    for rule in rules::ALL.iter().filter(|r| r.name != "syntax-error") {
+        assert!(
+            files.iter().any(|p| p.file_stem().unwrap() == rule.name),
+            "rule {} has no fixture",
+            rule.name
+        );
+    }
+}
+
+#[test]
+fn the_examples_are_clean_and_their_fixes_hold() {
+    for path in imp_files(&root().join("examples")) {
+        let src = std::fs::read_to_string(&path).unwrap();
+        let a = analyze(&src);
+        assert!(
+            a.internal_errors.is_empty(),
+            "{}: {:?}",
+            path.display(),
+            a.internal_errors
+        );
+        check_fixes(&path.display().to_string(), &src, &a.diagnostics);
+    }
+}
+
+#[test]
+fn every_rule_is_documented() {
+    for rule in rules::ALL {
+        let doc = rule.documentation();
+        assert!(
+            doc.starts_with(&format!("# `{}`", rule.name)),
+            "{}",
+            rule.name
+        );
+        for part in [
+            "**What it finds.**",
+            "**Why it matters.**",
+            "**Example.**",
+            "**Fix.**",
+        ] {
+            assert!(doc.contains(part), "{}: no {part}", rule.name);
+        }
+    }
+}
+
+#[test]
+fn rules_about_absence_stay_quiet_while_the_text_has_syntax_errors() {
+    // `y = a &` does not parse: it may have been meant to read `a` and
+    // define `y`, so neither `unused-input` nor `undefined-output` fires.
+    let a = analyze("input a, b\noutput y\ny = a &\nlet t = b\n");
+    let rules: Vec<&str> = a.diagnostics.iter().map(|d| d.rule).collect();
+    assert_eq!(rules, ["syntax-error"]);
+    // Without the error they do.
+    let a = analyze("input a, b\noutput y, z\ny = a\nlet t = a\n");
+    let rules: Vec<&str> = a.diagnostics.iter().map(|d| d.rule).collect();
+    assert_eq!(rules, ["unused-input", "undefined-output", "unused-signal"]);
+}
