@@ -38,8 +38,9 @@ pub fn apply(src: &str, edits: &[Edit]) -> Result<String, String> {
 
 /// Whether applying `fix` to `src` keeps every signal's function: the text
 /// still parses (with no more syntax errors than before), every output is
-/// still there, and every signal of both versions has the same on-set and
-/// the same don't-cares over the inputs, matched by name. Intermediate
+/// still there, the `never` combinations are the same, and every signal of
+/// both versions has the same on-set and the same don't-cares over the
+/// inputs (matched by name) on every combination that can occur. Intermediate
 /// signals and inputs may disappear only if nothing depended on them.
 pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
     let after = apply(src, &fix.edits)?;
@@ -72,21 +73,36 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
         .collect();
     let rename = |v: usize| old_to_new.get(v).copied().flatten();
     let mut effort = Effort::new(50_000_000);
+    let impossible = fnew.impossible;
     let mut same = |fnew: &mut Functions, a: BddRef, b: BddRef, what: &str| -> Result<(), String> {
-        match fnew.bdd.transfer(&fo.bdd, a, &rename, &mut effort) {
-            Ok(Some(moved)) if moved == b => Ok(()),
-            Ok(Some(_)) => Err(format!("{what} would change")),
-            Ok(None) => Err(format!("{what} reads an input the fix removes")),
+        let moved = match fnew.bdd.transfer(&fo.bdd, a, &rename, &mut effort) {
+            Ok(Some(moved)) => moved,
+            Ok(None) => return Err(format!("{what} reads an input the fix removes")),
+            Err(_) => return Err(format!("{what} could not be compared within the budget")),
+        };
+        // Only combinations that can occur count: on a `never` combination
+        // every signal is free.
+        let differs = (|| {
+            let d = fnew.bdd.xor(moved, b, &mut effort)?;
+            let possible = fnew.bdd.not(impossible, &mut effort)?;
+            fnew.bdd.and(d, possible, &mut effort)
+        })();
+        match differs {
+            Ok(BddRef::FALSE) => Ok(()),
+            Ok(_) => Err(format!("{what} would change")),
             Err(_) => Err(format!("{what} could not be compared within the budget")),
         }
     };
-    let impossible = fnew.impossible;
-    same(
-        &mut fnew,
+    // The impossible combinations themselves must not change.
+    let moved = fnew.bdd.transfer(
+        &fo.bdd,
         fo.impossible,
-        impossible,
-        "the impossible inputs (`never`)",
-    )?;
+        &rename,
+        &mut Effort::new(50_000_000),
+    );
+    if !matches!(moved, Ok(Some(m)) if m == impossible) {
+        return Err("the impossible inputs (`never`) would change".to_string());
+    }
     for (s, sig) in old.signals.iter().enumerate() {
         if sig.kind == SignalKind::Input {
             continue;

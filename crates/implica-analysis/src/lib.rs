@@ -12,6 +12,7 @@
 //! `rules/`, with its documentation as the file's doc comment.
 
 pub mod fixes;
+mod forms;
 pub mod functions;
 pub mod minimal;
 pub mod model;

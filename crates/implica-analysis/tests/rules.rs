@@ -221,3 +221,39 @@ fn rules_about_absence_stay_quiet_while_the_text_has_syntax_errors() {
     let rules: Vec<&str> = a.diagnostics.iter().map(|d| d.rule).collect();
     assert_eq!(rules, ["unused-input", "undefined-output", "unused-signal"]);
 }
+
+/// The rules of one rule name, with the text each points at.
+fn findings(src: &str, rule: &str) -> Vec<String> {
+    analyze(src)
+        .diagnostics
+        .iter()
+        .filter(|d| d.rule == rule)
+        .map(|d| src[d.span.start..d.span.end].to_string())
+        .collect()
+}
+
+#[test]
+fn consensus_theorem() {
+    // xy + x'z + yz = xy + x'z: a Boolean algebra identity (common practice;
+    // stated in digital-design texts such as M. Morris Mano's "Digital
+    // Design", cited from memory).
+    let src = "input x, y, z\noutput f\nf = x & y | !x & z | y & z\n";
+    assert_eq!(findings(src, "redundant-term"), ["y & z"]);
+    assert!(findings(src, "non-minimal").is_empty());
+    // Its dual: (x + y)(x' + z)(y + z) = (x + y)(x' + z).
+    let src = "input x, y, z\noutput f\nf = (x | y) & (!x | z) & (y | z)\n";
+    assert_eq!(findings(src, "redundant-term"), ["(y | z)"]);
+}
+
+#[test]
+fn absorption() {
+    // x + xy = x and x(x + y) = x (common practice, same sources).
+    let src = "input x, y\noutput f, g\nf = x | x & y\ng = x & (x | y)\n";
+    assert_eq!(findings(src, "redundant-term"), ["x & y", "(x | y)"]);
+    // After the fixes, both are the bare `x` and nothing is reported.
+    let a = analyze(src);
+    let edits: Vec<_> = a.diagnostics.iter().flat_map(|d| d.fixes[0].edits.clone()).collect();
+    let fixed = fixes::apply(src, &edits).unwrap();
+    assert_eq!(fixed, "input x, y\noutput f, g\nf = x\ng = x\n");
+    assert!(analyze(&fixed).diagnostics.iter().all(|d| d.rule != "redundant-term"));
+}

@@ -3,6 +3,9 @@
 
 pub mod cyclic_definition;
 pub mod duplicate_definition;
+pub mod non_minimal;
+pub mod redundant_literal;
+pub mod redundant_term;
 pub mod syntax_error;
 pub mod undeclared_assignment;
 pub mod undefined_output;
@@ -52,6 +55,9 @@ pub const ALL: &[Rule] = &[
     unused_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
+    redundant_term::RULE,
+    redundant_literal::RULE,
+    non_minimal::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -74,6 +80,9 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_input::check,
     unused_signal::check,
     cyclic_definition::check,
+    redundant_term::check,
+    redundant_literal::check,
+    non_minimal::check,
 ];
 
 impl Rule {
