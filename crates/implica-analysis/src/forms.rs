@@ -380,12 +380,11 @@ pub(crate) fn operand_removal(ops: &[Expr], i: usize) -> implica_syntax::Span {
 
 /// The minimal sum of products and product of sums of the expression over
 /// its names, terms in reading order; `None` past the exact budget.
-pub(crate) fn minimal_forms(f: &ExprFunction) -> Option<(Minimized, Minimized)> {
+pub(crate) fn minimal_forms(f: &ExprFunction, budget: &Budget) -> Option<(Minimized, Minimized)> {
     let dc = !&f.reachable;
     let on = f.table.and(&f.reachable);
-    let budget = Budget::default();
-    let mut sop = minimize_sop(&on, &dc, &budget).ok()?;
-    let mut pos = minimize_pos(&on, &dc, &budget).ok()?;
+    let mut sop = minimize_sop(&on, &dc, budget).ok()?;
+    let mut pos = minimize_pos(&on, &dc, budget).ok()?;
     sop.cover.sort_for_reading();
     pos.cover.sort_for_reading();
     Some((sop, pos))
@@ -396,9 +395,13 @@ pub(crate) fn minimal_forms(f: &ExprFunction) -> Option<(Minimized, Minimized)> 
 /// `constant-signal`'s), and dropping the redundant terms and literals
 /// does not already reach it. Then it is the one report for the
 /// expression, and the redundancy rules stay quiet.
-pub(crate) fn non_minimal_applies(e: &Expr, f: &ExprFunction) -> Option<(Minimized, Minimized)> {
+pub(crate) fn non_minimal_applies(
+    e: &Expr,
+    f: &ExprFunction,
+    budget: &Budget,
+) -> Option<(Minimized, Minimized)> {
     let written = written_literals(e);
-    let (sop, pos) = minimal_forms(f)?;
+    let (sop, pos) = minimal_forms(f, budget)?;
     let best = sop.cover.literals().min(pos.cover.literals());
     if best >= written || best == 0 {
         return None;

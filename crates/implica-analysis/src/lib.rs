@@ -11,12 +11,14 @@
 //! this crate returns; every rule lives here, one file per rule under
 //! `rules/`, with its documentation as the file's doc comment.
 
+pub mod config;
 pub mod fixes;
 mod forms;
 pub mod functions;
 pub mod minimal;
 pub mod model;
 pub mod rules;
+pub mod suppress;
 
 use implica_syntax::{Span, SyntaxError};
 
@@ -102,8 +104,16 @@ pub struct Analysis {
     pub internal_errors: Vec<String>,
 }
 
-/// Checks one document's text, reporting internal errors too.
+/// Checks one document's text with the default configuration, reporting
+/// internal errors too.
 pub fn analyze(src: &str) -> Analysis {
+    analyze_with(src, &config::Config::default())
+}
+
+/// Checks one document's text under a configuration: rules it turns off
+/// do not report, severities are as it sets them, and suppression comments
+/// quiet what they name.
+pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
     let (file, errors) = implica_syntax::parse(src);
     let mut diagnostics: Vec<Diagnostic> = errors
         .into_iter()
@@ -120,6 +130,7 @@ pub fn analyze(src: &str) -> Analysis {
     };
     let mut cx = rules::Ctx {
         src,
+        config,
         has_syntax_errors: !diagnostics.is_empty(),
         model: &model,
         functions: &mut functions,
@@ -128,8 +139,16 @@ pub fn analyze(src: &str) -> Analysis {
     for check in rules::CHECKS {
         check(&mut cx, &mut found);
     }
+    let quiet = suppress::collect(&file);
     let mut internal_errors = Vec::new();
-    for d in &mut found {
+    for mut d in found {
+        let Some(severity) = config.severity(d.rule) else {
+            continue;
+        };
+        if d.rule != rules::unknown_rule::RULE.name && suppress::quieted(&quiet, d.rule, d.span) {
+            continue;
+        }
+        d.severity = severity;
         d.fixes.retain(|fix| match fixes::verify(src, fix) {
             Ok(_) => true,
             Err(why) => {
@@ -140,8 +159,8 @@ pub fn analyze(src: &str) -> Analysis {
                 false
             }
         });
+        diagnostics.push(d);
     }
-    diagnostics.extend(found);
     diagnostics.sort_by_key(|d| (d.span.start, d.span.end));
     Analysis {
         diagnostics,
@@ -153,13 +172,18 @@ pub fn analyze(src: &str) -> Analysis {
 /// the rest of the document is still checked. Returns the decoded text,
 /// whose byte offsets equal those of `bytes`, with the diagnostics.
 pub fn check_bytes(bytes: &[u8]) -> (String, Vec<Diagnostic>) {
+    let (text, a) = check_bytes_with(bytes, &config::Config::default());
+    (text, a.diagnostics)
+}
+
+/// [`check_bytes`] under a configuration, with the internal errors.
+pub fn check_bytes_with(bytes: &[u8], config: &config::Config) -> (String, Analysis) {
     let (text, encoding_error) = implica_syntax::decode(bytes);
-    let mut diags: Vec<Diagnostic> = encoding_error
-        .into_iter()
-        .map(rules::syntax_error::diagnostic)
-        .collect();
-    diags.extend(check_source(&text));
-    (text, diags)
+    let mut a = analyze_with(&text, config);
+    if let Some(e) = encoding_error {
+        a.diagnostics.insert(0, rules::syntax_error::diagnostic(e));
+    }
+    (text, a)
 }
 
 impl From<SyntaxError> for Diagnostic {

@@ -44,6 +44,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat) -> ExitCode {
     }
     summary.unreadable += problems.len();
     let mut json_diags: Vec<Value> = Vec::new();
+    let mut configs = crate::project::Configs::default();
     for input in &inputs {
         let name = input.display();
         let bytes = match files::read(input) {
@@ -55,7 +56,12 @@ pub fn run(paths: &[PathBuf], format: OutputFormat) -> ExitCode {
             }
         };
         summary.files += 1;
-        let (text, diags) = implica_analysis::check_bytes(&bytes);
+        let config = configs.for_input(input);
+        let (text, analysis) = implica_analysis::check_bytes_with(&bytes, &config);
+        for e in &analysis.internal_errors {
+            eprintln!("implica: {name}: internal error (please report it): {e}");
+        }
+        let diags = analysis.diagnostics;
         summary.add(&diags);
         match format {
             OutputFormat::Human => print_human(&name, &text, &diags, false),
@@ -98,7 +104,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat) -> ExitCode {
             println!("{}", serde_json::to_string_pretty(&doc).unwrap_or_default());
         }
     }
-    if summary.unreadable > 0 {
+    if summary.unreadable > 0 || configs.errors > 0 {
         ExitCode::from(2)
     } else if summary.errors > 0 {
         ExitCode::from(1)
@@ -204,6 +210,13 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
                 at.line + 1,
                 at.col + 1
             ));
+        }
+        for f in &d.fixes {
+            let kind = match f.applicability {
+                Applicability::Safe => "fix",
+                Applicability::NeedsReview => "fix to review",
+            };
+            notes.push(format!("{kind}: {}", f.title));
         }
         if let Some(help) = &d.help {
             notes.push(format!("help: {help}"));

@@ -6,6 +6,7 @@ mod document;
 mod files;
 mod fmt;
 mod minimize;
+mod project;
 mod table;
 
 use clap::{Parser, Subcommand, ValueEnum};

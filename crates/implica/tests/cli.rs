@@ -298,3 +298,40 @@ fn help_is_available_on_every_subcommand() {
     assert_eq!(status(&["check"]), Some(2));
     assert_eq!(status(&["check", "--format", "xml", "x"]), Some(2));
 }
+
+#[test]
+fn the_nearest_implica_toml_applies_and_its_errors_exit_2() {
+    let dir = tempfile::tempdir().unwrap();
+    let sub = dir.path().join("logic");
+    fs::create_dir_all(&sub).unwrap();
+    let spec = temp_file(
+        &dir,
+        "logic/mux.imp",
+        b"input sel, a, b\noutput y\ny = sel & a | !sel & b\n",
+    );
+    // Without a configuration the hazard rule is off: clean.
+    assert_eq!(status(&["check", spec.to_str().unwrap()]), Some(0));
+    fs::write(
+        dir.path().join("implica.toml"),
+        "[rules]\nstatic-hazard = \"error\"\n",
+    )
+    .unwrap();
+    let out = implica(&["check", "--format", "json", spec.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    let doc: Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(doc["diagnostics"][0]["rule"], "static-hazard");
+    assert_eq!(doc["diagnostics"][0]["severity"], "error");
+    // A misspelt rule name is reported with its place, and exits 2.
+    fs::write(
+        dir.path().join("implica.toml"),
+        "[rules]\nstatic-hazards = \"error\"\n",
+    )
+    .unwrap();
+    let out = implica(&["check", spec.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(
+        stderr(&out).contains("implica.toml:2:1: there is no rule `static-hazards`"),
+        "{}",
+        stderr(&out)
+    );
+}

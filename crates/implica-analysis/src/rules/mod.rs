@@ -6,10 +6,12 @@ pub mod duplicate_definition;
 pub mod non_minimal;
 pub mod redundant_literal;
 pub mod redundant_term;
+pub mod static_hazard;
 pub mod syntax_error;
 pub mod undeclared_assignment;
 pub mod undefined_output;
 pub mod undefined_signal;
+pub mod unknown_rule;
 pub mod unused_input;
 pub mod unused_signal;
 
@@ -58,11 +60,17 @@ pub const ALL: &[Rule] = &[
     redundant_term::RULE,
     redundant_literal::RULE,
     non_minimal::RULE,
+    static_hazard::RULE,
+    unknown_rule::RULE,
 ];
+
+/// Rules that run only when the configuration turns them on.
+pub const OFF_BY_DEFAULT: &[&str] = &["static-hazard"];
 
 /// What a rule sees of one document.
 pub struct Ctx<'a, 'f> {
     pub src: &'a str,
+    pub config: &'a crate::config::Config,
     /// Whether the text has syntax errors: rules that report something
     /// missing ("never read") stay quiet then, since the statement that
     /// did not parse may be the one that reads it.
@@ -83,6 +91,8 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     redundant_term::check,
     redundant_literal::check,
     non_minimal::check,
+    static_hazard::check,
+    unknown_rule::check,
 ];
 
 impl Rule {

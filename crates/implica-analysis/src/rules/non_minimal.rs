@@ -25,13 +25,16 @@
 //!
 //! **Fix.** Replace the expression by its minimal sum of products, or by
 //! its minimal product of sums (whichever are cheaper than as written). The
-//! cheaper one is safe (proven equivalent, and `implica fix` may apply it);
+//! preferred one is safe (proven equivalent, and `implica fix` may apply
+//! it): the cheaper one, or the form `implica.toml` prefers (`form = "sop"`
+//! or `"pos"` under `[minimize]`) when that one is cheaper than as written;
 //! the other is offered for review. Expressions with a comment inside are
 //! reported without a fix, so that no comment is lost.
 //!
 //! Default severity: warning.
 
 use super::{Ctx, Rule};
+use crate::config::PreferredForm;
 use crate::forms::{expr_function, non_minimal_applies, written_literals};
 use crate::model::Body;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
@@ -56,7 +59,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let Some(f) = expr_function(m, cx.functions, e, &mut effort) else {
             continue;
         };
-        let Some((sop, pos)) = non_minimal_applies(e, &f) else {
+        let Some((sop, pos)) = non_minimal_applies(e, &f, &cx.config.budget) else {
             continue;
         };
         let (sl, pl) = (sop.cover.literals(), pos.cover.literals());
@@ -83,7 +86,11 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         });
         let item = &m.file.items[def.item];
         if item.trivia.interior().is_empty() {
-            let sop_first = sl <= pl;
+            let sop_first = match cx.config.form {
+                PreferredForm::Sop => sl < written,
+                PreferredForm::Pos => pl >= written,
+                PreferredForm::Either => sl <= pl,
+            };
             for (text, lits, is_sop) in [(&sop_text, sl, true), (&pos_text, pl, false)] {
                 if lits >= written || (!is_sop && pos_text == sop_text) {
                     continue;

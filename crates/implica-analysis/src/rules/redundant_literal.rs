@@ -54,7 +54,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let Some(f) = expr_function(m, cx.functions, e, &mut effort) else {
             continue;
         };
-        if non_minimal_applies(e, &f).is_some() {
+        if non_minimal_applies(e, &f, &cx.config.budget).is_some() {
             // `non-minimal` reports it, with a fix that goes further.
             continue;
         }

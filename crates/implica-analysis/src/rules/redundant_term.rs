@@ -60,7 +60,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let Some(f) = expr_function(m, cx.functions, e, &mut effort) else {
             continue;
         };
-        if non_minimal_applies(e, &f).is_some() {
+        if non_minimal_applies(e, &f, &cx.config.budget).is_some() {
             // `non-minimal` reports it, with a fix that goes further.
             continue;
         }
@@ -73,7 +73,18 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
             Shape::Sum => "term",
             Shape::Product => "factor",
         };
+        // With the hazard rule on, consensus terms that keep the sum free
+        // of static-1 hazards are its to judge.
+        let hazards_on = cx.config.severity("static-hazard").is_some() && t.shape == Shape::Sum;
+        let before = if hazards_on {
+            super::static_hazard::hazards(&f, &t, None).1.len()
+        } else {
+            0
+        };
         for &i in &r.parts {
+            if hazards_on && super::static_hazard::hazards(&f, &t, Some(i)).1.len() > before {
+                continue;
+            }
             let part = &t.parts[i];
             let text = &cx.src[part.expr.span.start..part.expr.span.end];
             let why = explain(&t, &f, i, cx.src);
