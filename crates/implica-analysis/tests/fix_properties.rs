@@ -67,10 +67,10 @@ fn program() -> impl Strategy<Value = String> {
 fn evaluate(file: &SourceFile, inputs: &HashMap<&str, bool>) -> HashMap<String, bool> {
     let mut defs: HashMap<String, &Expr> = HashMap::new();
     for item in &file.items {
-        if let ItemKind::Define(d) = &item.kind {
-            if let Rhs::Expr(e) = &d.rhs {
-                defs.entry(d.target.text.to_string()).or_insert(e);
-            }
+        if let ItemKind::Define(d) = &item.kind
+            && let Rhs::Expr(e) = &d.rhs
+        {
+            defs.entry(d.target.text.to_string()).or_insert(e);
         }
     }
     fn value(name: &str, defs: &HashMap<String, &Expr>, inputs: &HashMap<&str, bool>) -> bool {
