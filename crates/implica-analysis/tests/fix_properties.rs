@@ -116,7 +116,7 @@ proptest! {
         // Every safe fix whose edits do not overlap one taken before.
         let mut taken: Vec<implica_analysis::Edit> = Vec::new();
         for d in &a.diagnostics {
-            for f in d.fixes.iter().filter(|f| f.applicability == Applicability::Safe) {
+            if let Some(f) = d.fixes.iter().find(|f| f.applicability == Applicability::Safe) {
                 let clash = f.edits.iter().any(|e| taken.iter().any(|t| {
                     t != e && e.span.start < t.span.end.max(t.span.start + 1)
                         && t.span.start < e.span.end.max(e.span.start + 1)
@@ -124,7 +124,6 @@ proptest! {
                 if !clash {
                     taken.extend(f.edits.iter().cloned());
                 }
-                break;
             }
         }
         let fixed = fixes::apply(&src, &taken).expect("non-overlapping edits apply");
