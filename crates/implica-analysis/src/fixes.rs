@@ -36,6 +36,200 @@ pub fn apply(src: &str, edits: &[Edit]) -> Result<String, String> {
     Ok(out)
 }
 
+/// The proof of a fix that rewrites the right-hand side of one expression
+/// definition: the new expression must compute the same function (where
+/// inputs can occur) as the old, over the same signals; then no reader can
+/// change either. `None` when the fix is of another kind.
+fn verify_local(
+    model: &Model,
+    functions: &mut Functions,
+    src: &str,
+    fix: &Fix,
+) -> Option<Result<String, String>> {
+    use implica_syntax::ast::{ItemKind, Rhs};
+    let first = fix.edits.first()?;
+    let item = model
+        .file
+        .items
+        .iter()
+        .find(|it| it.span.start <= first.span.start && first.span.end <= it.span.end)?;
+    let ItemKind::Define(old_def) = &item.kind else {
+        return None;
+    };
+    let Rhs::Expr(old_expr) = &old_def.rhs else {
+        return None;
+    };
+    if !fix
+        .edits
+        .iter()
+        .all(|e| old_expr.span.start <= e.span.start && e.span.end <= old_expr.span.end)
+    {
+        return None;
+    }
+    let signal = model.signal(&old_def.target.text)?;
+    let old = functions.value(signal).ok()?;
+    if model.definition_of(signal).map(|d| d.item)
+        != model
+            .file
+            .items
+            .iter()
+            .position(|it| std::ptr::eq(it, item))
+    {
+        return None;
+    }
+    // The statement alone, edited, parsed on its own.
+    let base = item.span.start;
+    let local: Vec<Edit> = fix
+        .edits
+        .iter()
+        .map(|e| Edit {
+            span: implica_syntax::Span::new(e.span.start - base, e.span.end - base),
+            new_text: e.new_text.clone(),
+        })
+        .collect();
+    let text = match apply(&src[item.span.start..item.span.end], &local) {
+        Ok(t) => t,
+        Err(e) => return Some(Err(e)),
+    };
+    let (file, errors) = implica_syntax::parse(&text);
+    let [new_item] = &file.items[..] else {
+        return None;
+    };
+    let ItemKind::Define(new_def) = &new_item.kind else {
+        return None;
+    };
+    let Rhs::Expr(new_expr) = &new_def.rhs else {
+        return None;
+    };
+    if !errors.is_empty()
+        || new_def.target.text != old_def.target.text
+        || new_def.let_span.is_some() != old_def.let_span.is_some()
+    {
+        return None;
+    }
+    // Reading only names the old expression read, it cannot make a loop.
+    fn names(e: &implica_syntax::ast::Expr, out: &mut Vec<String>) {
+        use implica_syntax::ast::ExprKind;
+        match &e.kind {
+            ExprKind::Name(n) => out.push(n.text.to_string()),
+            ExprKind::Not { operand, .. } => names(operand, out),
+            ExprKind::Paren(inner) => names(inner, out),
+            ExprKind::Chain { operands, .. } => operands.iter().for_each(|o| names(o, out)),
+            ExprKind::Const(_) | ExprKind::Error => {}
+        }
+    }
+    let (mut was, mut now) = (Vec::new(), Vec::new());
+    names(old_expr, &mut was);
+    names(new_expr, &mut now);
+    if !now.iter().all(|n| was.contains(n)) {
+        return None;
+    }
+    let mut effort = Effort::new(DEFAULT_WORK_PER_DEFINITION);
+    let new = match functions.expr_full(model, new_expr, &mut effort) {
+        Ok(Ok(v)) => v,
+        // A name the document does not define: the general proof decides.
+        Ok(Err(_)) => return None,
+        Err(_) => return Some(Err("the proof ran out of budget".to_string())),
+    };
+    let differs = (|| {
+        let d = functions.bdd.xor(old.full, new, &mut effort)?;
+        let possible = functions.bdd.not(functions.impossible, &mut effort)?;
+        functions.bdd.and(d, possible, &mut effort)
+    })();
+    Some(match differs {
+        Ok(BddRef::FALSE) => apply(src, &fix.edits),
+        Ok(_) => Err(format!("`{}` would change", old_def.target.text)),
+        Err(_) => Err("the proof ran out of budget".to_string()),
+    })
+}
+
+/// [`verify`], reusing the analysis of `src` (its model and functions): only
+/// the definitions the fix touches, and those that read them, are computed
+/// again, in the same BDD manager.
+pub fn verify_in(
+    model: &Model,
+    functions: &mut Functions,
+    src: &str,
+    fix: &Fix,
+) -> Result<String, String> {
+    if let Some(r) = verify_local(model, functions, src, fix) {
+        return r;
+    }
+    let after = apply(src, &fix.edits)?;
+    let (old_errors, new_errors) = (
+        implica_syntax::parse(src).1.len(),
+        implica_syntax::parse(&after),
+    );
+    let (new_file, new_errors) = new_errors;
+    if new_errors.len() > old_errors {
+        return Err(format!(
+            "the fixed text does not parse: {}",
+            new_errors
+                .first()
+                .map_or(String::new(), |e| e.message.clone())
+        ));
+    }
+    let new = Model::build(&new_file);
+    let edited = match functions.edited((model, src), (&new, &after), DEFAULT_WORK_PER_DEFINITION) {
+        None => return verify(src, fix),
+        Some(Ok(e)) => e,
+        Some(Err(_)) => return Err("the analysis was cancelled".to_string()),
+    };
+    if edited.impossible != functions.impossible {
+        return Err("the impossible inputs (`never`) would change".to_string());
+    }
+    let mut effort = Effort::new(50_000_000);
+    let possible = functions
+        .bdd
+        .not(functions.impossible, &mut effort)
+        .map_err(|_| "out of budget".to_string())?;
+    for (s, sig) in model.signals.iter().enumerate() {
+        if sig.kind == SignalKind::Input {
+            continue;
+        }
+        let Some(t) = new
+            .signal(&sig.name)
+            .filter(|&t| !new.signals[t].definitions.is_empty())
+        else {
+            if sig.kind == SignalKind::Intermediate || sig.definitions.is_empty() {
+                continue;
+            }
+            return Err(format!("`{}` would no longer be defined", sig.name));
+        };
+        match (functions.value(s), edited.values[t]) {
+            (Ok(a), Ok(b)) => {
+                for (x, y, what) in [
+                    (a.lower, b.lower, ""),
+                    (a.upper, b.upper, "the freedom of "),
+                ] {
+                    if x == y {
+                        continue;
+                    }
+                    let d = functions
+                        .bdd
+                        .xor(x, y, &mut effort)
+                        .and_then(|d| functions.bdd.and(d, possible, &mut effort));
+                    match d {
+                        Ok(BddRef::FALSE) => {}
+                        Ok(_) => return Err(format!("{what}`{}` would change", sig.name)),
+                        Err(_) => {
+                            return Err(format!(
+                                "{what}`{}` could not be compared within the budget",
+                                sig.name
+                            ));
+                        }
+                    }
+                }
+            }
+            (Ok(_), Err(_)) => {
+                return Err(format!("`{}` would no longer have a function", sig.name));
+            }
+            (Err(_), _) => {}
+        }
+    }
+    Ok(after)
+}
+
 /// Whether applying `fix` to `src` keeps every signal's function: the text
 /// still parses (with no more syntax errors than before), every output is
 /// still there, the `never` combinations are the same, and every signal of

@@ -49,9 +49,26 @@ pub(crate) fn expr_function(
     }
     let k = names.len();
     let table = e.truth_table(k);
-    let possible = functions.bdd.not(functions.impossible, effort).ok()?;
-    let mut reachable = TruthTable::zero(k);
-    mark_reachable(functions, &vals, 0, 0, possible, &mut reachable, effort).ok()?;
+    // Distinct primary inputs with nothing excluded take every combination.
+    let mut seen = Vec::new();
+    let all_inputs = functions.impossible == BddRef::FALSE
+        && vals.iter().all(|&v| {
+            let support = functions.bdd.support(v);
+            let plain = support.len() == 1
+                && support[0] < functions.inputs
+                && functions.bdd.var(support[0]).ok() == Some(v)
+                && !seen.contains(&support[0]);
+            seen.extend(support);
+            plain
+        });
+    let reachable = if all_inputs {
+        TruthTable::one(k)
+    } else {
+        let possible = functions.bdd.not(functions.impossible, effort).ok()?;
+        let mut reachable = TruthTable::zero(k);
+        mark_reachable(functions, &vals, 0, 0, possible, &mut reachable, effort).ok()?;
+        reachable
+    };
     Some(ExprFunction {
         names,
         table,

@@ -58,6 +58,14 @@ pub struct Local {
     pub dc: BddRef,
 }
 
+/// The functions of an edited document, in the manager of the original
+/// (see [`Functions::edited`]).
+pub struct Edited {
+    /// By signal of the edited document's model.
+    pub values: Vec<Value>,
+    pub impossible: BddRef,
+}
+
 /// The functions of all signals of one document.
 pub struct Functions {
     pub bdd: Bdd,
@@ -101,7 +109,9 @@ impl Functions {
         cancel: Option<&dyn Fn() -> bool>,
     ) -> Result<Functions, Interrupted> {
         let inputs = model.inputs.len();
-        let vars = inputs + model.signals.len();
+        // Room for a choice variable per signal, and for those of edited
+        // versions computed in the same manager (`edited`).
+        let vars = inputs + 4 * model.signals.len() + 1024;
         let mut f = Functions {
             bdd: Bdd::new(vars),
             inputs,
@@ -160,6 +170,131 @@ impl Functions {
             }
         }
         Ok(f)
+    }
+
+    /// The functions of an edited version of the document, computed in
+    /// this manager so that they compare with this version's by reference.
+    /// A signal whose definition reads the same text and whose inputs have
+    /// the same values keeps its function without recomputing it; only
+    /// what an edit touches is computed again. Returns `None` when the
+    /// primary inputs differ (a new manager is needed then). The values of
+    /// this version are left as they were.
+    pub fn edited(
+        &mut self,
+        old: (&Model, &str),
+        new: (&Model, &str),
+        work_per_definition: u64,
+    ) -> Option<Result<Edited, Interrupted>> {
+        let (om, osrc) = old;
+        let (nm, nsrc) = new;
+        let names = |m: &Model| -> Vec<String> {
+            m.inputs
+                .iter()
+                .map(|&s| m.signals[s].name.to_string())
+                .collect()
+        };
+        if names(om) != names(nm) {
+            return None;
+        }
+        let saved_values = std::mem::replace(
+            &mut self.values,
+            vec![Err(Unknown::Cyclic); nm.signals.len()],
+        );
+        let saved_reads = std::mem::replace(&mut self.reads, vec![Vec::new(); nm.signals.len()]);
+        let saved_impossible = self.impossible;
+        let text_of = |m: &Model, src: &str, s: SignalId| -> Option<(String, usize)> {
+            let d = m.definition_of(s)?;
+            let item = &m.file.items[d.item];
+            let column = match d.body {
+                Body::Column { column, .. } => column,
+                _ => usize::MAX,
+            };
+            Some((src.get(item.span.start..item.span.end)?.to_string(), column))
+        };
+        let mut result = Ok(());
+        for &s in &nm.order {
+            let name = &nm.signals[s].name;
+            let reuse = om.signal(name).and_then(|o| {
+                let same_text =
+                    text_of(om, osrc, o).is_some() && text_of(om, osrc, o) == text_of(nm, nsrc, s);
+                let same_reads = nm.definition_of(s).is_some_and(|d| {
+                    d.reads.iter().all(|&r| {
+                        om.signal(&nm.signals[r].name)
+                            .is_some_and(|or| saved_values[or] == self.values[r])
+                    })
+                });
+                let same_kind = om.signals[o].input_index == nm.signals[s].input_index;
+                (same_text && same_reads && same_kind)
+                    .then(|| (saved_values[o], saved_reads[o].clone()))
+            });
+            if let Some((v, r)) = reuse {
+                self.values[s] = v;
+                self.reads[s] = r;
+                continue;
+            }
+            let mut e = Effort::new(work_per_definition);
+            let value = match self.signal_value(nm, s, &mut e) {
+                Ok(k) => Ok(k),
+                Err(Fail::Unknown(u)) => Err(u),
+                Err(Fail::Stop(Interrupted::OutOfBudget)) => Err(Unknown::TooLarge),
+                Err(Fail::Stop(Interrupted::Cancelled)) => {
+                    result = Err(Interrupted::Cancelled);
+                    break;
+                }
+            };
+            self.values[s] = value;
+            self.reads[s] = match nm.signals[s].input_index {
+                Some(i) => vec![i],
+                None => {
+                    let mut r: Vec<usize> = nm
+                        .definition_of(s)
+                        .map(|d| {
+                            d.reads
+                                .iter()
+                                .flat_map(|&x| self.reads[x].clone())
+                                .collect()
+                        })
+                        .unwrap_or_default();
+                    r.sort_unstable();
+                    r.dedup();
+                    r
+                }
+            };
+        }
+        self.impossible = BddRef::FALSE;
+        if result.is_ok() {
+            for st in &nm.never {
+                let mut e = Effort::new(work_per_definition);
+                let sure = (|| -> Result<BddRef, Fail> {
+                    let v = self.expr(nm, st.body, &mut e)?;
+                    let v = self.bdd.forall_from(v, self.inputs, &mut e)?;
+                    Ok(self.bdd.or(self.impossible, v, &mut e)?)
+                })();
+                if let Ok(i) = sure {
+                    self.impossible = i;
+                }
+            }
+        }
+        let values = std::mem::replace(&mut self.values, saved_values);
+        self.reads = saved_reads;
+        let impossible = std::mem::replace(&mut self.impossible, saved_impossible);
+        Some(result.map(|()| Edited { values, impossible }))
+    }
+
+    /// The function of an expression over the document's signals (over
+    /// the primary inputs and the choice variables), as a definition with
+    /// that right-hand side would have it.
+    pub fn expr_full(
+        &mut self,
+        model: &Model,
+        e: &Expr,
+        effort: &mut Effort,
+    ) -> Result<Result<BddRef, Unknown>, Interrupted> {
+        match self.expr(model, e, effort) {
+            Ok(v) => Ok(Ok(v)),
+            Err(Fail::Unknown(u)) => Ok(Err(u)),
+            Err(Fail::Stop(i)) => Err(i),
+        }
     }
 
     /// The function of a signal.
@@ -287,6 +422,9 @@ impl Functions {
         let full = if free == BddRef::FALSE {
             on
         } else {
+            if self.next_choice >= self.bdd.vars() {
+                return Err(Unknown::TooLarge.into());
+            }
             let choice = self.bdd.var(self.next_choice)?;
             self.next_choice += 1;
             let chosen = self.bdd.and(free, choice, e)?;

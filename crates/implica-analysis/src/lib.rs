@@ -134,6 +134,8 @@ pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
         has_syntax_errors: !diagnostics.is_empty(),
         model: &model,
         functions: &mut functions,
+        forms: Default::default(),
+        non_minimal: Default::default(),
     };
     let mut found = Vec::new();
     for check in rules::CHECKS {
@@ -149,16 +151,18 @@ pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
             continue;
         }
         d.severity = severity;
-        d.fixes.retain(|fix| match fixes::verify(src, fix) {
-            Ok(_) => true,
-            Err(why) => {
-                internal_errors.push(format!(
-                    "{}: the fix \"{}\" was withheld: {why}",
-                    d.rule, fix.title
-                ));
-                false
-            }
-        });
+        d.fixes.retain(
+            |fix| match fixes::verify_in(&model, &mut functions, src, fix) {
+                Ok(_) => true,
+                Err(why) => {
+                    internal_errors.push(format!(
+                        "{}: the fix \"{}\" was withheld: {why}",
+                        d.rule, fix.title
+                    ));
+                    false
+                }
+            },
+        );
         diagnostics.push(d);
     }
     diagnostics.sort_by_key(|d| (d.span.start, d.span.end));

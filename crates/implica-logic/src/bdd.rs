@@ -25,7 +25,44 @@
 //! ```
 
 use crate::{BoolExpr, Cover, Cube, Effort, Interrupted};
-use std::collections::HashMap;
+use std::collections::HashMap as StdHashMap;
+use std::hash::{BuildHasherDefault, Hasher};
+
+/// A fast hasher for the small integer keys of the node and operation
+/// tables (the default one is built to resist adversarial keys, which
+/// these are not, and was half the time of building diagrams).
+#[derive(Default)]
+struct NodeHasher(u64);
+
+impl Hasher for NodeHasher {
+    fn finish(&self) -> u64 {
+        self.0
+    }
+
+    fn write(&mut self, bytes: &[u8]) {
+        for &b in bytes {
+            self.write_u64(u64::from(b));
+        }
+    }
+
+    fn write_u8(&mut self, i: u8) {
+        self.write_u64(u64::from(i));
+    }
+
+    fn write_u32(&mut self, i: u32) {
+        self.write_u64(u64::from(i));
+    }
+
+    fn write_u64(&mut self, i: u64) {
+        self.0 = (self.0.rotate_left(5) ^ i).wrapping_mul(0x51_7c_c1_b7_27_22_0a_95);
+    }
+
+    fn write_usize(&mut self, i: usize) {
+        self.write_u64(i as u64);
+    }
+}
+
+type HashMap<K, V> = StdHashMap<K, V, BuildHasherDefault<NodeHasher>>;
 
 /// A function in a [`Bdd`] manager.
 #[derive(Clone, Copy, PartialEq, Eq, Hash, Debug)]
@@ -82,8 +119,8 @@ impl Bdd {
         Bdd {
             vars,
             nodes: vec![terminal(0), terminal(1)],
-            unique: HashMap::new(),
-            cache: HashMap::new(),
+            unique: HashMap::default(),
+            cache: HashMap::default(),
             max_nodes,
         }
     }
@@ -340,7 +377,7 @@ impl Bdd {
         value: bool,
         effort: &mut Effort,
     ) -> Result<BddRef, Interrupted> {
-        let mut memo = HashMap::new();
+        let mut memo = HashMap::default();
         self.restrict_rec(f.0, i as u32, value, &mut memo, effort)
             .map(BddRef)
     }
@@ -379,7 +416,7 @@ impl Bdd {
         first: usize,
         effort: &mut Effort,
     ) -> Result<BddRef, Interrupted> {
-        let mut memo = HashMap::new();
+        let mut memo = HashMap::default();
         let first = first as u32;
         self.exists_rec(f.0, &|v| v >= first, &mut memo, effort)
             .map(BddRef)
@@ -406,7 +443,7 @@ impl Bdd {
         quantified: &[bool],
         effort: &mut Effort,
     ) -> Result<BddRef, Interrupted> {
-        let mut memo = HashMap::new();
+        let mut memo = HashMap::default();
         let q = |v: u32| quantified.get(v as usize).copied().unwrap_or(false);
         self.exists_rec(f.0, &q, &mut memo, effort).map(BddRef)
     }
@@ -462,7 +499,7 @@ impl Bdd {
         rename: &dyn Fn(usize) -> Option<usize>,
         effort: &mut Effort,
     ) -> Result<Option<BddRef>, Interrupted> {
-        let mut memo: HashMap<u32, u32> = HashMap::new();
+        let mut memo: HashMap<u32, u32> = HashMap::default();
         // Depth-first, children before parents, without recursion.
         let mut stack = vec![(f.0, false)];
         while let Some((n, expanded)) = stack.pop() {
@@ -518,7 +555,7 @@ impl Bdd {
     ) -> Result<Cover, Interrupted> {
         let k = order.len();
         assert!(k <= 64, "a cover has at most 64 inputs");
-        let mut local = HashMap::new();
+        let mut local = HashMap::default();
         for (j, &v) in order.iter().enumerate() {
             local.insert(v as u32, j);
         }
@@ -573,7 +610,7 @@ impl Bdd {
     /// The fraction of all input vectors where `f` is 1: multiplied by
     /// 2^k, the count over any k variables that include its support.
     pub fn fraction_ones(&self, f: BddRef) -> f64 {
-        let mut memo: HashMap<u32, f64> = HashMap::new();
+        let mut memo: HashMap<u32, f64> = HashMap::default();
         // Fraction of the input space where the node is 1.
         fn frac(b: &Bdd, n: u32, memo: &mut HashMap<u32, f64>) -> f64 {
             if n <= 1 {

@@ -77,6 +77,48 @@ pub struct Ctx<'a, 'f> {
     pub has_syntax_errors: bool,
     pub model: &'a Model<'f>,
     pub functions: &'a mut Functions,
+    /// Expression definitions as functions of the names they read, by
+    /// definition, computed once for the rules that need them.
+    pub(crate) forms:
+        std::collections::HashMap<usize, Option<std::rc::Rc<crate::forms::ExprFunction>>>,
+    /// Whether `non-minimal` reports a definition, with the minimal forms.
+    pub(crate) non_minimal: std::collections::HashMap<usize, Option<std::rc::Rc<MinimalPair>>>,
+}
+
+/// The minimal sum of products and product of sums of an expression.
+pub(crate) type MinimalPair = (implica_logic::Minimized, implica_logic::Minimized);
+
+impl Ctx<'_, '_> {
+    /// Definition `id`'s expression as a function of the names it reads.
+    pub(crate) fn expr_function(
+        &mut self,
+        id: usize,
+        e: &implica_syntax::ast::Expr,
+    ) -> Option<std::rc::Rc<crate::forms::ExprFunction>> {
+        if let Some(f) = self.forms.get(&id) {
+            return f.clone();
+        }
+        let mut effort = implica_logic::Effort::new(5_000_000);
+        let f = crate::forms::expr_function(self.model, self.functions, e, &mut effort)
+            .map(std::rc::Rc::new);
+        self.forms.insert(id, f.clone());
+        f
+    }
+
+    /// [`crate::forms::non_minimal_applies`] for definition `id`, once.
+    pub(crate) fn non_minimal(
+        &mut self,
+        id: usize,
+        e: &implica_syntax::ast::Expr,
+        f: &crate::forms::ExprFunction,
+    ) -> Option<std::rc::Rc<MinimalPair>> {
+        if let Some(r) = self.non_minimal.get(&id) {
+            return r.clone();
+        }
+        let r = crate::forms::non_minimal_applies(e, f, &self.config.budget).map(std::rc::Rc::new);
+        self.non_minimal.insert(id, r.clone());
+        r
+    }
 }
 
 /// The semantic rules, run in order on one document.

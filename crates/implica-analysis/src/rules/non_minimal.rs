@@ -35,10 +35,10 @@
 
 use super::{Ctx, Rule};
 use crate::config::PreferredForm;
-use crate::forms::{expr_function, non_minimal_applies, written_literals};
+use crate::forms::written_literals;
 use crate::model::Body;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
-use implica_logic::{BoolExpr, Effort};
+use implica_logic::BoolExpr;
 
 pub const RULE: Rule = Rule {
     name: "non-minimal",
@@ -55,13 +55,13 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
             continue;
         }
         let written = written_literals(e);
-        let mut effort = Effort::new(5_000_000);
-        let Some(f) = expr_function(m, cx.functions, e, &mut effort) else {
+        let Some(f) = cx.expr_function(id, e) else {
             continue;
         };
-        let Some((sop, pos)) = non_minimal_applies(e, &f, &cx.config.budget) else {
+        let Some(pair) = cx.non_minimal(id, e, &f) else {
             continue;
         };
+        let (sop, pos) = (&pair.0, &pair.1);
         let (sl, pl) = (sop.cover.literals(), pos.cover.literals());
         let name = |i: usize| f.names[i].to_string();
         let sop_text = BoolExpr::from_cover(&sop.cover).to_text(&name);

@@ -35,12 +35,9 @@
 //! Default severity: warning.
 
 use super::{Ctx, Rule};
-use crate::forms::{
-    Shape, expr_function, non_minimal_applies, operand_removal, redundancy, two_level,
-};
+use crate::forms::{Shape, operand_removal, redundancy, two_level};
 use crate::model::Body;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
-use implica_logic::Effort;
 
 pub const RULE: Rule = Rule {
     name: "redundant-term",
@@ -56,11 +53,10 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         if m.signals[def.signal].definitions.first() != Some(&id) {
             continue;
         }
-        let mut effort = Effort::new(5_000_000);
-        let Some(f) = expr_function(m, cx.functions, e, &mut effort) else {
+        let Some(f) = cx.expr_function(id, e) else {
             continue;
         };
-        if non_minimal_applies(e, &f, &cx.config.budget).is_some() {
+        if cx.non_minimal(id, e, &f).is_some() {
             // `non-minimal` reports it, with a fix that goes further.
             continue;
         }

@@ -31,10 +31,10 @@
 //! Default severity: warning (when enabled).
 
 use super::{Ctx, Rule};
-use crate::forms::{Shape, expr_function, two_level};
+use crate::forms::{Shape, two_level};
 use crate::model::Body;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
-use implica_logic::{BoolExpr, Cover, Cube, Effort, hazard_free_cover, static1_hazards};
+use implica_logic::{BoolExpr, Cover, Cube, hazard_free_cover, static1_hazards};
 
 pub const RULE: Rule = Rule {
     name: "static-hazard",
@@ -77,8 +77,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         if m.signals[def.signal].definitions.first() != Some(&id) {
             continue;
         }
-        let mut effort = Effort::new(5_000_000);
-        let Some(f) = expr_function(m, cx.functions, e, &mut effort) else {
+        let Some(f) = cx.expr_function(id, e) else {
             continue;
         };
         let Some(t) = two_level(e, &f.names) else {
