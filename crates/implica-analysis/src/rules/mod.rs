@@ -4,6 +4,7 @@
 pub mod cyclic_definition;
 pub mod duplicate_definition;
 pub mod syntax_error;
+pub mod table_width;
 pub mod undeclared_assignment;
 pub mod undefined_output;
 pub mod undefined_signal;
@@ -52,6 +53,7 @@ pub const ALL: &[Rule] = &[
     unused_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
+    table_width::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -74,6 +76,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_input::check,
     unused_signal::check,
     cyclic_definition::check,
+    table_width::check,
 ];
 
 impl Rule {
