@@ -1,6 +1,7 @@
 //! The rules. Each rule is one file whose doc comment is its documentation,
 //! shown by `implica explain RULE`.
 
+pub mod assertion_failed;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
 pub mod syntax_error;
@@ -54,6 +55,7 @@ pub const ALL: &[Rule] = &[
     unused_signal::RULE,
     cyclic_definition::RULE,
     table_width::RULE,
+    assertion_failed::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -77,6 +79,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_signal::check,
     cyclic_definition::check,
     table_width::check,
+    assertion_failed::check,
 ];
 
 impl Rule {
