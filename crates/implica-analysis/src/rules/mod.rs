@@ -11,6 +11,7 @@ pub mod undefined_output;
 pub mod undefined_signal;
 pub mod unused_input;
 pub mod unused_signal;
+pub mod vector_mismatch;
 
 use crate::functions::Functions;
 use crate::model::Model;
@@ -56,6 +57,7 @@ pub const ALL: &[Rule] = &[
     cyclic_definition::RULE,
     table_width::RULE,
     assertion_failed::RULE,
+    vector_mismatch::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -80,6 +82,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     cyclic_definition::check,
     table_width::check,
     assertion_failed::check,
+    vector_mismatch::check,
 ];
 
 impl Rule {
