@@ -4,11 +4,13 @@
 pub mod assertion_failed;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
+pub mod empty_constraint;
 pub mod syntax_error;
 pub mod table_width;
 pub mod undeclared_assignment;
 pub mod undefined_output;
 pub mod undefined_signal;
+pub mod unused_constraint;
 pub mod unused_input;
 pub mod unused_signal;
 pub mod vector_mismatch;
@@ -58,6 +60,8 @@ pub const ALL: &[Rule] = &[
     table_width::RULE,
     assertion_failed::RULE,
     vector_mismatch::RULE,
+    empty_constraint::RULE,
+    unused_constraint::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -83,6 +87,8 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     table_width::check,
     assertion_failed::check,
     vector_mismatch::check,
+    empty_constraint::check,
+    unused_constraint::check,
 ];
 
 impl Rule {
