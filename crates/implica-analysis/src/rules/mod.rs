@@ -6,6 +6,7 @@ pub mod cyclic_definition;
 pub mod duplicate_definition;
 pub mod empty_constraint;
 pub mod syntax_error;
+pub mod table_conflict;
 pub mod table_width;
 pub mod undeclared_assignment;
 pub mod undefined_output;
@@ -57,6 +58,7 @@ pub const ALL: &[Rule] = &[
     unused_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
+    table_conflict::RULE,
     table_width::RULE,
     assertion_failed::RULE,
     vector_mismatch::RULE,
@@ -84,6 +86,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_input::check,
     unused_signal::check,
     cyclic_definition::check,
+    table_conflict::check,
     table_width::check,
     assertion_failed::check,
     vector_mismatch::check,
