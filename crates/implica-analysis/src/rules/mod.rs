@@ -7,6 +7,7 @@ pub mod duplicate_definition;
 pub mod empty_constraint;
 pub mod syntax_error;
 pub mod table_conflict;
+pub mod table_missing_rows;
 pub mod table_width;
 pub mod undeclared_assignment;
 pub mod undefined_output;
@@ -58,6 +59,7 @@ pub const ALL: &[Rule] = &[
     unused_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
+    table_missing_rows::RULE,
     table_conflict::RULE,
     table_width::RULE,
     assertion_failed::RULE,
@@ -86,6 +88,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_input::check,
     unused_signal::check,
     cyclic_definition::check,
+    table_missing_rows::check,
     table_conflict::check,
     table_width::check,
     assertion_failed::check,
