@@ -22,7 +22,9 @@
 //!
 //! reports the counterexample `door_closed=0, call=1`, with `motor_on` = 1
 //! there. The vector lists every primary input the assertion reads,
-//! directly or through the signals it names, in declaration order, and the
+//! directly or through the signals it names, in declaration order (the
+//! assertion does not depend on the others; the vector is possible for
+//! some value of them), and the
 //! message gives the value of each named signal that is not an input
 //! (`free` for a don't-care). A counterexample that fails for every choice
 //! of the don't-cares is preferred; otherwise the message says that it
@@ -96,7 +98,11 @@ fn check_one(
         .filter(|&&s| m.signals[s].kind != SignalKind::Input)
         .filter_map(|&s| {
             let k = f.value(s).ok()?;
-            Some(format!("`{}` = {}", m.signals[s].name, value_at(f, k, &point)))
+            Some(format!(
+                "`{}` = {}",
+                m.signals[s].name,
+                value_at(f, k, &point)
+            ))
         })
         .collect();
     let mut message = if read.is_empty() {

@@ -219,9 +219,9 @@ pub(crate) fn possible_witness(
 ) -> Result<Option<Vec<bool>>, Interrupted> {
     let possible = f.bdd.not(f.impossible, e)?;
     let q = f.bdd.and(p, possible, e)?;
-    Ok(f.bdd.any_one(q).map(|point| {
-        ins.iter().map(|&v| f.bdd.eval(v, &point)).collect()
-    }))
+    Ok(f.bdd
+        .any_one(q)
+        .map(|point| ins.iter().map(|&v| f.bdd.eval(v, &point)).collect()))
 }
 
 /// `a=1, b=0` over the names of a table header, each name once.

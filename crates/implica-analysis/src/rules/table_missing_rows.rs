@@ -187,7 +187,15 @@ fn find(
     }
     // Merged heuristically, then each pattern kept only if it can occur.
     let start = local.to_cover_over(missing, &order, MAX_START_CUBES)?;
-    let merged = minimize_heuristic(&start, &Cover { vars: k, cubes: Vec::new() }, e)?.cover;
+    let merged = minimize_heuristic(
+        &start,
+        &Cover {
+            vars: k,
+            cubes: Vec::new(),
+        },
+        e,
+    )?
+    .cover;
     let mut kept = Cover {
         vars: k,
         cubes: Vec::new(),

@@ -131,7 +131,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
             add(f.reads(s).to_vec());
         }
     }
-    let mut read_by = |signals: Vec<usize>| {
+    let read_by = |signals: Vec<usize>| {
         let mut r: Vec<usize> = signals.iter().flat_map(|&s| f.reads(s).to_vec()).collect();
         r.sort_unstable();
         r.dedup();

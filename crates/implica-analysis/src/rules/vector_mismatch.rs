@@ -26,8 +26,9 @@
 //! ```
 //!
 //! The message gives the input vector (the header's inputs, then any other
-//! input the checked signal reads), the computed value and the expected
-//! one, at the differing output cell.
+//! input the checked signal reads; the vector is possible for some value of
+//! the inputs it leaves out), the computed value and the expected one, at
+//! the differing output cell.
 //!
 //! A test vector drives primary inputs only. A header that names some
 //! other signal as an input is reported by this rule too, at that name,
