@@ -471,3 +471,59 @@ fn the_examples_break_none_of_these_rules() {
         }
     }
 }
+
+#[test]
+fn missing_rows_over_intermediate_signals_leave_out_what_cannot_occur() {
+    // `lo` and `hi` are never 1 together, so `11` is not missing; `10` is.
+    let src = "input b1, b0\noutput seg\nlet lo = !b1 & !b0\nlet hi = b1 & b0\n\
+               table (lo, hi -> seg) {\n  00 -> 0\n  01 -> 1\n}\n";
+    let found = diags(src, "table-missing-rows");
+    assert_eq!(found.len(), 1);
+    assert_eq!(
+        found[0].message,
+        "no row covers 1 combination of (lo, hi): `10`"
+    );
+    // The same input twice: `01` and `10` cannot occur.
+    let src = "input a\noutput y\ntable (a, a -> y) {\n  00 -> 0\n  01 -> 1\n}\n";
+    let found = diags(src, "table-missing-rows");
+    assert_eq!(found.len(), 1);
+    assert_eq!(
+        found[0].message,
+        "no row covers 1 combination of (a, a): `11`"
+    );
+    let src = "input a\noutput y\ntable (a, a -> y) {\n  00 -> 0\n  11 -> 1\n}\n";
+    assert!(diags(src, "table-missing-rows").is_empty());
+}
+
+#[test]
+fn missing_rows_of_a_wide_table_are_merged_and_counted() {
+    // 24 inputs, past the exact route: one row, so the missing set is its
+    // complement, 24 patterns of one literal each (common practice: the
+    // complement of a minterm is the sum of its negated literals).
+    let names: Vec<String> = (0..24).map(|i| format!("x{i}")).collect();
+    let src = format!(
+        "input {}\noutput y\ntable ({} -> y) {{\n  {} -> 1\n}}\n",
+        names.join(", "),
+        names.join(", "),
+        "1".repeat(24)
+    );
+    let found = diags(&src, "table-missing-rows");
+    assert_eq!(found.len(), 1);
+    let m = &found[0].message;
+    assert!(
+        m.starts_with(&format!("no row covers {} combinations", (1u64 << 24) - 1)),
+        "{m}"
+    );
+    assert!(m.ends_with(", and 16 more patterns"), "{m}");
+    assert_eq!(found[0].fixes.len(), 1);
+}
+
+#[test]
+fn a_table_with_no_inputs_and_no_row() {
+    let src = "output y\ntable (-> y) {\n}\n";
+    let found = diags(src, "table-missing-rows");
+    assert_eq!(found.len(), 1);
+    assert_eq!(found[0].message, "this table has no row");
+    let after = fixes::verify(src, &found[0].fixes[0]).unwrap();
+    assert_eq!(after, "output y\ntable (-> y) {\n  unlisted -> -\n}\n");
+}

@@ -6,16 +6,15 @@
 //! possible (at most eight, then how many more), with their number.
 //!
 //! "Missing" is over the table's own inputs, which may be intermediate
-//! signals. Combinations that cannot occur are left out:
-//!
-//! - where the table's inputs are distinct primary inputs, a combination
-//!   that is impossible whatever the other inputs are (by `never`) is not
-//!   missing; it may still be merged into a listed pattern, which then
-//!   covers some impossible combinations as well;
-//! - otherwise, a listed pattern is dropped when the table's input signals
-//!   can never show it together on a possible combination (for example
-//!   `11` for two signals that are never 1 at once); the patterns left may
-//!   still include such combinations.
+//! signals. Combinations that cannot occur are left out: those where the
+//! table's input signals never take those values together on an input
+//! combination that `never` allows (for primary inputs: a combination that
+//! is impossible whatever the other inputs are). For tables of up to 16
+//! inputs this is exact: the count is of the missing combinations that can
+//! occur, though a listed pattern may also cover some that cannot, where
+//! that merges patterns. For wider tables a pattern is dropped only when
+//! none of its combinations can occur, and the count includes every
+//! combination of the patterns listed.
 //!
 //! Nothing is reported when none of the missing combinations can occur.
 //!
@@ -55,7 +54,8 @@ use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions};
 use crate::model::Model;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 use implica_logic::{
-    Bdd, BddRef, Budget, Cover, Cube, Effort, Interrupted, minimize_heuristic, minimize_sop,
+    Bdd, BddRef, Budget, Cover, Cube, Effort, Interrupted, TruthTable, minimize_heuristic,
+    minimize_sop,
 };
 use implica_syntax::Span;
 use implica_syntax::ast::{Item, ItemKind, RowKind, Table};
@@ -71,6 +71,8 @@ pub const RULE: Rule = Rule {
 const SHOWN: usize = 8;
 /// Inputs beyond which a table's missing rows are not listed (cube width).
 const MAX_INPUTS: usize = 64;
+/// Inputs up to which every missing combination is checked on its own.
+const EXACT_INPUTS: usize = 16;
 /// Disjoint patterns the missing set may start as before merging.
 const MAX_START_CUBES: usize = 20_000;
 
@@ -177,12 +179,32 @@ fn find(
         if on.is_zero() {
             return Ok(None);
         }
-        if let Ok(min) = minimize_sop(&on, &dc, &Budget::default()) {
-            let mut cover = min.cover;
+        if let Some(mut cover) = merged(&on, &dc) {
             return Ok(Some(Missing {
                 patterns: patterns(&mut cover),
                 count: on.count_ones() as f64,
             }));
+        }
+    }
+    if k <= EXACT_INPUTS {
+        // Each missing combination checked on its own.
+        let all = local.to_truth_table(missing, &order);
+        let mut part = Effort::new(e.remaining() / 2);
+        let reach = occurring(f, ins, &all, possible, &mut part);
+        e.spend(part.used())?;
+        match reach {
+            Ok(on) if on.is_zero() => return Ok(None),
+            Ok(on) => {
+                let dc = all.and_not(&on);
+                if let Some(mut cover) = merged(&on, &dc) {
+                    return Ok(Some(Missing {
+                        patterns: patterns(&mut cover),
+                        count: on.count_ones() as f64,
+                    }));
+                }
+            }
+            Err(Interrupted::Cancelled) => return Err(Interrupted::Cancelled),
+            Err(Interrupted::OutOfBudget) => {}
         }
     }
     // Merged heuristically, then each pattern kept only if it can occur.
@@ -216,6 +238,39 @@ fn find(
         patterns: patterns(&mut kept),
         count,
     }))
+}
+
+/// The fewest patterns that cover `on`, allowed to spill into `dc` (the
+/// combinations that cannot occur) only where that saves a pattern, so
+/// that a pattern is not widened for nothing.
+fn merged(on: &TruthTable, dc: &TruthTable) -> Option<Cover> {
+    let budget = Budget::default();
+    let with = minimize_sop(on, dc, &budget).ok()?.cover;
+    match minimize_sop(on, &TruthTable::zero(on.vars()), &budget) {
+        Ok(exact) if exact.cover.len() <= with.len() => Some(exact.cover),
+        _ => Some(with),
+    }
+}
+
+/// The combinations of `all` (over the table's inputs) that the input
+/// signals can show on a possible input combination.
+fn occurring(
+    f: &mut Functions,
+    ins: &[BddRef],
+    all: &TruthTable,
+    possible: BddRef,
+    e: &mut Effort,
+) -> Result<TruthTable, Interrupted> {
+    let k = ins.len();
+    let mut on = TruthTable::zero(k);
+    for m in all.minterms() {
+        let cells: Vec<Option<bool>> = (0..k).map(|j| Some((m >> (k - 1 - j)) & 1 == 1)).collect();
+        let p = pattern(f, ins, &cells, e)?;
+        if f.bdd.and(p, possible, e)? != BddRef::FALSE {
+            on.set(m, true);
+        }
+    }
+    Ok(on)
 }
 
 /// The cubes as table patterns, in table order (`0` before `-` before `1`).
