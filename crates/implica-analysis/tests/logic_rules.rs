@@ -527,3 +527,111 @@ fn a_table_with_no_inputs_and_no_row() {
     let after = fixes::verify(src, &found[0].fixes[0]).unwrap();
     assert_eq!(after, "output y\ntable (-> y) {\n  unlisted -> -\n}\n");
 }
+
+/// The variables an expression names.
+fn vars_of(e: &E, out: &mut Vec<usize>) {
+    match e {
+        E::Var(i) => {
+            if !out.contains(i) {
+                out.push(*i);
+            }
+        }
+        E::Not(x) => vars_of(x, out),
+        E::Bin(_, a, b) => {
+            vars_of(a, out);
+            vars_of(b, out);
+        }
+    }
+}
+
+#[test]
+fn unused_constraints_against_a_brute_force_of_what_each_reader_sees() {
+    let mut r = Rng(13);
+    let (mut covered, mut unseen) = (0, 0);
+    for _ in 0..400 {
+        // Outputs over random subsets of the inputs, up to three `never`s.
+        let y = random_expr(&mut r, 2, 3);
+        let z = random_expr(&mut r, 1, 3);
+        let nevers: Vec<E> = (0..1 + r.below(3))
+            .map(|_| random_expr(&mut r, 2, 3))
+            .collect();
+        let names = ["a", "b", "c"];
+        let mut src = format!(
+            "input a, b, c\noutput y, z\ny = {}\nz = {}\n",
+            text(&y, &names),
+            text(&z, &names)
+        );
+        for n in &nevers {
+            src.push_str(&format!("never {}\n", text(n, &names)));
+        }
+        let set = |e: &E| -> Vec<bool> { (0..8).map(|m| eval(e, &bits(m))).collect() };
+        let sets: Vec<Vec<bool>> = nevers.iter().map(set).collect();
+        let union = |skip: &[bool]| -> Vec<bool> {
+            (0..8)
+                .map(|m| (0..sets.len()).any(|j| !skip[j] && sets[j][m]))
+                .collect()
+        };
+        let all = union(&vec![false; sets.len()]);
+        let found = diags(&src, "unused-constraint");
+        let line_of = |d: &Diagnostic| src[..d.span.start].lines().count() - 5;
+        if all.iter().all(|&x| x) {
+            assert!(found.is_empty(), "{src}\n{found:?}");
+            continue;
+        }
+        // Covered by the others, the later ones first.
+        let mut removed = vec![false; sets.len()];
+        for i in (0..sets.len()).rev() {
+            if !sets[i].iter().any(|&x| x) {
+                continue;
+            }
+            let mut skip = removed.clone();
+            skip[i] = true;
+            let rest = union(&skip);
+            if (0..8).all(|m| !sets[i][m] || rest[m]) {
+                removed[i] = true;
+            }
+        }
+        let mut readers = Vec::new();
+        for e in [&y, &z] {
+            let mut v = Vec::new();
+            vars_of(e, &mut v);
+            readers.push(v);
+        }
+        // The assignments of a reader's inputs that are impossible whatever
+        // the rest.
+        let sure = |imp: &[bool], r: &[usize]| -> Vec<bool> {
+            (0..8)
+                .map(|m| {
+                    (0..8)
+                        .filter(|&n| r.iter().all(|&i| bits(n)[i] == bits(m)[i]))
+                        .all(|n| imp[n])
+                })
+                .collect()
+        };
+        for i in 0..sets.len() {
+            let at: Vec<&Diagnostic> = found.iter().filter(|d| line_of(d) == i).collect();
+            if !sets[i].iter().any(|&x| x) {
+                assert!(at.is_empty(), "{src}\n{found:?}");
+                continue;
+            }
+            if removed[i] {
+                covered += 1;
+                assert!(
+                    at.len() == 1 && at[0].message.contains("adds nothing"),
+                    "{src}\nnever {i}: {found:?}"
+                );
+                continue;
+            }
+            let mut skip = vec![false; sets.len()];
+            skip[i] = true;
+            let without = union(&skip);
+            let seen = readers.iter().any(|r| sure(&all, r) != sure(&without, r));
+            unseen += usize::from(!seen);
+            assert_eq!(at.len(), usize::from(!seen), "{src}\nnever {i}: {found:?}");
+            if let Some(d) = at.first() {
+                assert!(d.message.starts_with("nothing depends on"), "{}", d.message);
+            }
+        }
+    }
+    assert!(covered > 20 && unseen > 20, "{covered} {unseen}");
+}
