@@ -90,22 +90,38 @@ fn check_table(
             _ => None,
         })
         .collect();
+    // Each row's combinations that can occur, over the primary inputs: the
+    // overlap of two rows is the conjunction of theirs.
+    let possible = cx.functions.bdd.not(cx.functions.impossible, e)?;
+    let mut occurs = Vec::with_capacity(rows.len());
+    for (cells, _, _) in &rows {
+        let cells: Vec<Option<bool>> = cells.iter().map(|c| value(c.value)).collect();
+        let p = pattern(cx.functions, ins, &cells, e)?;
+        occurs.push(cx.functions.bdd.and(p, possible, e)?);
+    }
     for (i, (in_i, out_i, span_i)) in rows.iter().enumerate() {
-        for (in_j, out_j, span_j) in &rows[..i] {
+        if occurs[i] == BddRef::FALSE {
+            continue;
+        }
+        for (j, (in_j, out_j, span_j)) in rows[..i].iter().enumerate() {
             e.spend(1)?;
+            if occurs[j] == BddRef::FALSE || !overlap(in_i, in_j) {
+                continue;
+            }
             let cols: Vec<usize> = (0..out_i.len())
                 .filter(|&c| differ(out_i[c].value, out_j[c].value))
                 .collect();
             if cols.is_empty() {
                 continue;
             }
-            let Some(common) = intersect(in_i, in_j) else {
+            let both = cx.functions.bdd.and(occurs[i], occurs[j], e)?;
+            let Some(point) = cx.functions.bdd.any_one(both) else {
                 continue;
             };
-            let p = pattern(cx.functions, ins, &common, e)?;
-            let Some(at) = possible_witness(cx.functions, ins, p, e)? else {
-                continue;
-            };
+            let at: Vec<bool> = ins
+                .iter()
+                .map(|&v| cx.functions.bdd.eval(v, &point))
+                .collect();
             let verb = if expect { "expects" } else { "gives" };
             let vals = |cells: &[Cell]| {
                 cols.iter()
@@ -156,16 +172,9 @@ fn bit(v: CellValue) -> &'static str {
     }
 }
 
-/// The common input cells of two rows, `None` where they do not overlap.
-fn intersect(a: &[Cell], b: &[Cell]) -> Option<Vec<Option<bool>>> {
-    a.iter()
-        .zip(b)
-        .map(|(x, y)| match (value(x.value), value(y.value)) {
-            (Some(p), Some(q)) if p != q => None,
-            (Some(p), _) | (_, Some(p)) => Some(Some(p)),
-            (None, None) => Some(None),
-        })
-        .collect()
+/// Whether two rows' input cells share a combination.
+fn overlap(a: &[Cell], b: &[Cell]) -> bool {
+    a.iter().zip(b).all(|(x, y)| !differ(x.value, y.value))
 }
 
 /// The value of an input cell: `None` for `-`.
@@ -207,21 +216,6 @@ pub(crate) fn pattern(
         acc = f.bdd.and(acc, lit, e)?;
     }
     Ok(acc)
-}
-
-/// Values of the table's inputs at a possible combination where `p` holds
-/// (for some choice of the don't-cares), or `None` when there is none.
-pub(crate) fn possible_witness(
-    f: &mut Functions,
-    ins: &[BddRef],
-    p: BddRef,
-    e: &mut Effort,
-) -> Result<Option<Vec<bool>>, Interrupted> {
-    let possible = f.bdd.not(f.impossible, e)?;
-    let q = f.bdd.and(p, possible, e)?;
-    Ok(f.bdd
-        .any_one(q)
-        .map(|point| ins.iter().map(|&v| f.bdd.eval(v, &point)).collect()))
 }
 
 /// `a=1, b=0` over the names of a table header, each name once.

@@ -17,6 +17,8 @@
 //! combination of the patterns listed.
 //!
 //! Nothing is reported when none of the missing combinations can occur.
+//! When the missing set is too scattered to list within the budget, the
+//! message says so and gives its size.
 //!
 //! **Why it matters.** A missing row is a don't-care: whoever builds the
 //! logic picks its value. That may be intended, but a table that says so
@@ -105,7 +107,8 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
 
 /// The missing combinations that can occur.
 struct Missing {
-    /// Patterns over the table's inputs, in reading order.
+    /// Patterns over the table's inputs, in reading order; empty when
+    /// there are too many to list.
     patterns: Vec<String>,
     /// Combinations they stand for (those that can occur, where known).
     count: f64,
@@ -208,7 +211,13 @@ fn find(
         }
     }
     // Merged heuristically, then each pattern kept only if it can occur.
-    let start = local.to_cover_over(missing, &order, MAX_START_CUBES)?;
+    let Ok(start) = local.to_cover_over(missing, &order, MAX_START_CUBES) else {
+        // Too scattered to list; that some can occur is proven above.
+        return Ok(Some(Missing {
+            patterns: Vec::new(),
+            count: local.fraction_ones(missing) * 2f64.powi(k as i32),
+        }));
+    };
     let merged = minimize_heuristic(
         &start,
         &Cover {
@@ -327,10 +336,17 @@ fn diagnostic(src: &str, item: &Item, table: &Table, missing: Missing) -> Diagno
             1 => ", and 1 more pattern".to_string(),
             n => format!(", and {n} more patterns"),
         };
-        format!(
-            "no row covers {what} of ({names}): {}{tail}",
-            shown.join(", ")
-        )
+        if shown.is_empty() {
+            format!(
+                "no row covers some combinations of ({names}) that can occur: at most {what}, \
+                 too scattered to list"
+            )
+        } else {
+            format!(
+                "no row covers {what} of ({names}): {}{tail}",
+                shown.join(", ")
+            )
+        }
     };
     let mut d = RULE.at(header, message);
     let dashes = unlisted_cells(table);
