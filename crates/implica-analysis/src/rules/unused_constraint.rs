@@ -11,7 +11,7 @@
 //!    the inputs the signal reads that are impossible whatever its other
 //!    inputs are (docs/language.md, "Don't-cares"); an assertion and a test
 //!    vector likewise see it only through the inputs they read. The
-//!    constraint is reported when, for every signal with a function, every
+//!    constraint is reported when, for every defined signal, every
 //!    `assert` and every `expect` block, that set (the combinations of the
 //!    inputs it reads that are impossible whatever the rest) is the same
 //!    with and without the constraint. Removing it then changes no
@@ -127,7 +127,8 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         }
     };
     for (s, sig) in m.signals.iter().enumerate() {
-        if sig.kind != SignalKind::Input && !sig.definitions.is_empty() && f.value(s).is_ok() {
+        // Signals without a function too: once fixed, they may need it.
+        if sig.kind != SignalKind::Input && !sig.definitions.is_empty() {
             add(f.reads(s).to_vec());
         }
     }
