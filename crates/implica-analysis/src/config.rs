@@ -43,6 +43,10 @@ pub enum PreferredForm {
 pub struct Config {
     /// `None`: the rule is off.
     severities: HashMap<&'static str, Option<Severity>>,
+    /// Rules whose severity the configuration sets (the others keep the
+    /// severity each diagnostic comes with: a rule may raise its default
+    /// for a worse case).
+    explicit: std::collections::HashSet<&'static str>,
     pub form: PreferredForm,
     pub budget: Budget,
 }
@@ -64,6 +68,7 @@ impl Default for Config {
         }
         Config {
             severities,
+            explicit: Default::default(),
             form: PreferredForm::Either,
             budget: Budget::default(),
         }
@@ -95,11 +100,17 @@ impl Config {
         self.severities.get(rule).copied().flatten()
     }
 
+    /// Whether the configuration sets this rule's severity.
+    pub fn sets(&self, rule: &str) -> bool {
+        self.explicit.contains(rule)
+    }
+
     /// Sets a rule's severity (`None`: off); false when there is no such rule.
     pub fn set(&mut self, rule: &str, severity: Option<Severity>) -> bool {
         match rules::find(rule) {
             Some(r) => {
                 self.severities.insert(r.name, severity);
+                self.explicit.insert(r.name);
                 true
             }
             None => false,
@@ -156,6 +167,7 @@ impl Config {
                 continue;
             }
             config.severities.insert(rule.name, setting);
+            config.explicit.insert(rule.name);
         }
         if let Some(m) = raw.minimize {
             if let Some(form) = m.form {

@@ -37,6 +37,11 @@ pub(crate) fn expr_function(
     expr: &Expr,
     effort: &mut Effort,
 ) -> Option<ExprFunction> {
+    // When `never` excludes every input, everything is free: that is
+    // `empty-constraint`'s to report, not each expression's.
+    if functions.impossible == BddRef::TRUE {
+        return None;
+    }
     let mut names = Vec::new();
     let e = to_bool_expr(expr, &mut names)?;
     if names.len() > MAX_NAMES {

@@ -333,6 +333,22 @@ impl Functions {
         Ok(Ok(Local { inputs, on, dc }))
     }
 
+    /// The value of an expression (of a `never` or an `assert`, say) over
+    /// the primary inputs and the choice variables, the way definitions
+    /// read signals: each name stands for its signal's `full` function.
+    pub fn expr_value(
+        &mut self,
+        model: &Model,
+        x: &Expr,
+        effort: &mut Effort,
+    ) -> Result<Result<BddRef, Unknown>, Interrupted> {
+        match self.expr(model, x, effort) {
+            Ok(v) => Ok(Ok(v)),
+            Err(Fail::Unknown(u)) => Ok(Err(u)),
+            Err(Fail::Stop(i)) => Err(i),
+        }
+    }
+
     fn signal_value(&mut self, model: &Model, s: SignalId, e: &mut Effort) -> Result<Known, Fail> {
         if let Some(i) = model.signals[s].input_index {
             let v = self.bdd.var(i)?;

@@ -150,7 +150,9 @@ pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
         if d.rule != rules::unknown_rule::RULE.name && suppress::quieted(&quiet, d.rule, d.span) {
             continue;
         }
-        d.severity = severity;
+        if config.sets(d.rule) {
+            d.severity = severity;
+        }
         d.fixes.retain(
             |fix| match fixes::verify_in(&model, &mut functions, src, fix) {
                 Ok(_) => true,

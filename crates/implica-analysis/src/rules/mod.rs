@@ -1,19 +1,26 @@
 //! The rules. Each rule is one file whose doc comment is its documentation,
 //! shown by `implica explain RULE`.
 
+pub mod assertion_failed;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
+pub mod empty_constraint;
 pub mod non_minimal;
 pub mod redundant_literal;
 pub mod redundant_term;
 pub mod static_hazard;
 pub mod syntax_error;
+pub mod table_conflict;
+pub mod table_missing_rows;
+pub mod table_width;
 pub mod undeclared_assignment;
 pub mod undefined_output;
 pub mod undefined_signal;
 pub mod unknown_rule;
+pub mod unused_constraint;
 pub mod unused_input;
 pub mod unused_signal;
+pub mod vector_mismatch;
 
 use crate::functions::Functions;
 use crate::model::Model;
@@ -61,6 +68,13 @@ pub const ALL: &[Rule] = &[
     redundant_literal::RULE,
     non_minimal::RULE,
     static_hazard::RULE,
+    table_missing_rows::RULE,
+    table_conflict::RULE,
+    table_width::RULE,
+    assertion_failed::RULE,
+    vector_mismatch::RULE,
+    empty_constraint::RULE,
+    unused_constraint::RULE,
     unknown_rule::RULE,
 ];
 
@@ -134,6 +148,13 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     redundant_literal::check,
     non_minimal::check,
     static_hazard::check,
+    table_missing_rows::check,
+    table_conflict::check,
+    table_width::check,
+    assertion_failed::check,
+    vector_mismatch::check,
+    empty_constraint::check,
+    unused_constraint::check,
     unknown_rule::check,
 ];
 
