@@ -94,6 +94,15 @@ enum Command {
         #[arg(long, value_name = "N", default_value_t = 1024)]
         max_rows: usize,
     },
+    /// List every rule: name, default severity (or `off`), one line on what it finds.
+    Rules,
+    /// Print a rule's full documentation: what it finds, why it matters, an example, the fix.
+    ///
+    /// Exit status: 0, or 2 when there is no such rule.
+    Explain {
+        /// The rule's name, as `implica rules` lists it.
+        rule: String,
+    },
     /// Print the syntax tree of a file (for contributors).
     #[command(hide = true)]
     SyntaxTree {
@@ -130,6 +139,29 @@ fn main() -> ExitCode {
             format,
             max_rows,
         } => table::run(&file, &signals, format, max_rows),
+        Command::Rules => {
+            let rules = implica_analysis::rules::ALL;
+            let width = rules.iter().map(|r| r.name.len()).max().unwrap_or(0);
+            for r in rules {
+                let severity = if implica_analysis::rules::OFF_BY_DEFAULT.contains(&r.name) {
+                    "off"
+                } else {
+                    r.default_severity.as_str()
+                };
+                println!("{:width$}  {severity:7}  {}", r.name, r.summary);
+            }
+            ExitCode::SUCCESS
+        }
+        Command::Explain { rule } => match implica_analysis::rules::find(&rule) {
+            Some(r) => {
+                print!("{}", r.documentation());
+                ExitCode::SUCCESS
+            }
+            None => {
+                eprintln!("implica: there is no rule `{rule}`; `implica rules` lists them");
+                ExitCode::from(2)
+            }
+        },
         Command::SyntaxTree { path, spans } => match files::read_input(&path) {
             Ok(bytes) => {
                 let (text, error) = implica_syntax::decode(&bytes);

@@ -289,7 +289,7 @@ fn fmt_keeps_permissions_and_leaves_the_original_when_the_write_fails() {
 
 #[test]
 fn help_is_available_on_every_subcommand() {
-    for sub in ["check", "fmt", "minimize", "table"] {
+    for sub in ["check", "fmt", "minimize", "table", "rules", "explain"] {
         let out = implica(&[sub, "--help"]);
         assert_eq!(out.status.code(), Some(0));
         assert!(stdout(&out).contains("Usage: implica"), "{sub}");
@@ -334,4 +334,54 @@ fn the_nearest_implica_toml_applies_and_its_errors_exit_2() {
         "{}",
         stderr(&out)
     );
+}
+
+#[test]
+fn rules_and_explain() {
+    let out = implica(&["rules"]);
+    assert_eq!(out.status.code(), Some(0));
+    let text = stdout(&out);
+    // Every rule of the analysis, one line each; the hazard rule is off.
+    for rule in implica_rule_names() {
+        assert!(
+            text.lines().any(|l| l.starts_with(&format!("{rule} "))),
+            "{rule}"
+        );
+    }
+    assert!(
+        text.lines()
+            .any(|l| l.starts_with("static-hazard") && l.contains(" off "))
+    );
+    let out = implica(&["explain", "redundant-term"]);
+    assert_eq!(out.status.code(), Some(0));
+    assert!(stdout(&out).starts_with("# `redundant-term`"));
+    assert!(stdout(&out).contains("**Fix.**"));
+    let out = implica(&["explain", "redundant-terms"]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(stderr(&out).contains("no rule `redundant-terms`"));
+}
+
+/// The rule names the issue fixes (users' configurations depend on them).
+fn implica_rule_names() -> Vec<&'static str> {
+    vec![
+        "syntax-error",
+        "undefined-signal",
+        "duplicate-definition",
+        "undefined-output",
+        "undeclared-assignment",
+        "unused-input",
+        "unused-signal",
+        "cyclic-definition",
+        "redundant-term",
+        "redundant-literal",
+        "non-minimal",
+        "table-missing-rows",
+        "table-conflict",
+        "table-width",
+        "assertion-failed",
+        "vector-mismatch",
+        "empty-constraint",
+        "unused-constraint",
+        "static-hazard",
+    ]
 }

@@ -39,7 +39,7 @@ use implica_logic::{BoolExpr, Cover, Cube, hazard_free_cover, static1_hazards};
 pub const RULE: Rule = Rule {
     name: "static-hazard",
     default_severity: Severity::Warning,
-    summary: "a sum of products can glitch to 0 when one input changes (off by default)",
+    summary: "a sum of products can glitch to 0 when one input changes",
     source: include_str!("static_hazard.rs"),
 };
 
