@@ -1,6 +1,7 @@
 //! The rules. Each rule is one file whose doc comment is its documentation,
 //! shown by `implica explain RULE`.
 
+pub mod constant_signal;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
 pub mod syntax_error;
@@ -52,6 +53,7 @@ pub const ALL: &[Rule] = &[
     unused_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
+    constant_signal::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -74,6 +76,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_input::check,
     unused_signal::check,
     cyclic_definition::check,
+    constant_signal::check,
 ];
 
 impl Rule {
