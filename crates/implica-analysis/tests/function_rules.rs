@@ -81,3 +81,92 @@ fn never_makes_a_signal_constant_without_a_fix() {
     let src = "input a\noutput y\nnever a | !a\ny = a\n";
     assert!(messages(src, "constant-signal").is_empty());
 }
+
+#[test]
+fn a_vacuous_input_is_compared_with_its_freedom() {
+    // Rows over (a, b): 1 on 01 and 11 is b; free on 00 only, its freedom
+    // depends on a and a matters.
+    let src = "input a, b\noutput y\ntable (a, b -> y) {\n  01 -> 1\n  11 -> 1\n  00 -> -\n  10 -> 0\n}\n";
+    assert!(messages(src, "vacuous-input").is_empty());
+    // Free on 00 and 10: both its value and its freedom are the same for
+    // a=0 and a=1.
+    let src = "input a, b\noutput y\ntable (a, b -> y) {\n  01 -> 1\n  11 -> 1\n  -0 -> -\n}\n";
+    assert_eq!(
+        messages(src, "vacuous-input"),
+        ["`y` is the same for `a`=0 and `a`=1 under every input"]
+    );
+}
+
+#[test]
+fn a_constant_signal_has_no_vacuous_input() {
+    let src = "input a, b\noutput y\ny = a & !a & b\n";
+    assert!(messages(src, "vacuous-input").is_empty());
+    assert_eq!(messages(src, "constant-signal"), ["`y` is always 0"]);
+}
+
+#[test]
+fn a_vacuous_input_is_reported_where_it_stops_mattering() {
+    // t = a & b | a & !b is a: b is reported at t only, not at y or z,
+    // which read b through t.
+    let src = "input a, b, c\noutput y, z\nlet t = a & b | a & !b\ny = t & c\nz = t | c\n";
+    let d = of_rule(src, "vacuous-input");
+    assert_eq!(d.len(), 1);
+    assert_eq!(
+        d[0].message,
+        "`t` is the same for `b`=0 and `b`=1 under every input"
+    );
+    // u = b ^ c and v = u ^ b: v is c, so b is vacuous for v although it
+    // matters for u, which v reads: reported at v, with both places where
+    // v's definition brings b in.
+    let src = "input b, c\noutput v\nlet u = b ^ c\nv = u ^ b\n";
+    let d = of_rule(src, "vacuous-input");
+    assert_eq!(d.len(), 1);
+    assert_eq!(
+        d[0].message,
+        "`v` is the same for `b`=0 and `b`=1 under every input"
+    );
+    let notes: Vec<&str> = d[0].related.iter().map(|r| r.message.as_str()).collect();
+    assert_eq!(
+        notes,
+        ["`b` reaches `v` through `u` here", "`b` is read here"]
+    );
+    // Arriving only through signals that depend on it, b cancels out in
+    // how they are combined: not reported.
+    let src = "input b, c\noutput v\nlet u = b & c\nlet w = !b & c\nv = u | w\n";
+    assert!(messages(src, "vacuous-input").is_empty());
+}
+
+#[test]
+fn an_input_that_only_matters_to_one_signal_is_reported_there() {
+    // b is vacuous for y, and y is the only reader: one report at y.
+    let src = "input a, b\noutput y\ny = a | a & b\n";
+    let d = of_rule(src, "vacuous-input");
+    assert_eq!(d.len(), 1);
+    assert!(d[0].message.starts_with("`y` is the same"));
+    // If another signal depends on b, each vacuous reader is reported at
+    // its own definition.
+    let src = "input a, b\noutput y, z, w\ny = a | a & b\nz = a & (b | !b)\nw = b\n";
+    assert_eq!(
+        messages(src, "vacuous-input"),
+        [
+            "`y` is the same for `b`=0 and `b`=1 under every input",
+            "`z` is the same for `b`=0 and `b`=1 under every input"
+        ]
+    );
+}
+
+#[test]
+fn never_alone_does_not_make_an_unnamed_input_vacuous() {
+    // With never a & c, y = c & !t ignores a (where c is 1, a is 0), but a
+    // reaches y only through t: not reported. Named in the definition, it
+    // is; z is c there, so b is vacuous too.
+    let src =
+        "input a, b, c\noutput y, z\nnever a & c\nlet t = a & b\ny = c & !t\nz = c & !(a & b)\n";
+    assert_eq!(
+        messages(src, "vacuous-input"),
+        [
+            "`z` is the same for `a`=0 and `a`=1 under every input combination that `never` allows",
+            "`z` is the same for `b`=0 and `b`=1 under every input combination that `never` allows"
+        ]
+    );
+}

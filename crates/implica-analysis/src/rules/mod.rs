@@ -10,6 +10,7 @@ pub mod undefined_output;
 pub mod undefined_signal;
 pub mod unused_input;
 pub mod unused_signal;
+pub mod vacuous_input;
 
 use crate::functions::Functions;
 use crate::model::Model;
@@ -51,6 +52,7 @@ pub const ALL: &[Rule] = &[
     undefined_output::RULE,
     undeclared_assignment::RULE,
     unused_input::RULE,
+    vacuous_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
     constant_signal::RULE,
@@ -74,6 +76,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     undefined_output::check,
     undeclared_assignment::check,
     unused_input::check,
+    vacuous_input::check,
     unused_signal::check,
     cyclic_definition::check,
     constant_signal::check,
