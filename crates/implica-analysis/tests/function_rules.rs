@@ -170,3 +170,37 @@ fn never_alone_does_not_make_an_unnamed_input_vacuous() {
         ]
     );
 }
+
+#[test]
+fn equivalent_outputs_get_no_fix_that_would_make_a_cycle() {
+    // y1 = y2 | a & b & !a is y2 (the second term is 0), and y1 comes first:
+    // defining y2 as y1 would make y2 read itself.
+    let src = "input a, b\noutput y1, y2\ny1 = y2 | a & b & !a\ny2 = a & b\n";
+    let d = of_rule(src, "equivalent-signals");
+    assert_eq!(d.len(), 1);
+    assert_eq!(d[0].message, "`y2` computes the same function as `y1`");
+    assert!(d[0].fixes.is_empty());
+}
+
+#[test]
+fn equivalent_outputs_with_dont_cares_share_their_freedom() {
+    // Both are 1 on row 11 and free on row 10 (rows over a, b): equal,
+    // but no fix, since each has its own pick of the free row.
+    let table =
+        |name: &str| format!("table (a, b -> {name}) {{\n  11 -> 1\n  10 -> -\n  0- -> 0\n}}\n");
+    let src = format!("input a, b\noutput y, z\n{}{}", table("y"), table("z"));
+    let d = of_rule(&src, "equivalent-signals");
+    assert_eq!(d.len(), 1);
+    assert_eq!(d[0].message, "`z` computes the same function as `y`");
+    assert!(d[0].fixes.is_empty());
+    // Free on another row: not the same specification.
+    let other = "table (a, b -> z) {\n  11 -> 1\n  01 -> -\n  10 -> 0\n  00 -> 0\n}\n";
+    let src = format!("input a, b\noutput y, z\n{}{other}", table("y"));
+    assert!(messages(&src, "equivalent-signals").is_empty());
+}
+
+#[test]
+fn constant_outputs_are_not_equivalent_signals() {
+    let src = "input a\noutput y, z\ny = a & !a\nz = 0\n";
+    assert!(messages(src, "equivalent-signals").is_empty());
+}

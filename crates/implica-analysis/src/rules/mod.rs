@@ -4,6 +4,7 @@
 pub mod constant_signal;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
+pub mod equivalent_signals;
 pub mod syntax_error;
 pub mod undeclared_assignment;
 pub mod undefined_output;
@@ -56,6 +57,7 @@ pub const ALL: &[Rule] = &[
     unused_signal::RULE,
     cyclic_definition::RULE,
     constant_signal::RULE,
+    equivalent_signals::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -80,6 +82,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     unused_signal::check,
     cyclic_definition::check,
     constant_signal::check,
+    equivalent_signals::check,
 ];
 
 impl Rule {
