@@ -39,6 +39,7 @@
 use super::constant_signal::{WORK_PER_SIGNAL, constants, rhs_span};
 use super::vacuous_input::and_list;
 use super::{Ctx, Rule};
+use crate::functions::Known;
 use crate::model::{Body, SignalId, SignalKind};
 use crate::{Applicability, Diagnostic, Edit, Fix, Related, Severity};
 use implica_logic::{BddRef, Effort};
@@ -101,6 +102,23 @@ fn reaches(cx: &Ctx, from: SignalId, to: SignalId) -> bool {
     false
 }
 
+/// The bounds of a function on the combinations `never` allows: `f & p`
+/// is canonical for the functions equal to `f` wherever `p` holds, so equal
+/// keys are equal functions there. `None` when out of budget.
+pub(crate) fn key(cx: &mut Ctx, k: Known) -> Option<(BddRef, BddRef)> {
+    let impossible = cx.functions.impossible;
+    if impossible == BddRef::FALSE {
+        return Some((k.lower, k.upper));
+    }
+    let mut e = Effort::new(WORK_PER_SIGNAL);
+    let bdd = &mut cx.functions.bdd;
+    let possible = bdd.not(impossible, &mut e).ok()?;
+    Some((
+        bdd.and(k.lower, possible, &mut e).ok()?,
+        bdd.and(k.upper, possible, &mut e).ok()?,
+    ))
+}
+
 pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let impossible = cx.functions.impossible;
     if impossible == BddRef::TRUE {
@@ -117,28 +135,14 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         })
         .collect();
     outputs.sort_by_key(|&s| m.definition_of(s).map_or(usize::MAX, |d| d.target.start));
-    // Grouped by their bounds on the possible combinations: `f & p` is
-    // canonical for the functions equal to `f` wherever `p` holds.
+    // Grouped by their bounds on the possible combinations.
     let mut groups: Vec<Vec<SignalId>> = Vec::new();
     let mut by_key: HashMap<(BddRef, BddRef), usize> = HashMap::new();
     for &s in &outputs {
         let Ok(k) = cx.functions.value(s) else {
             continue;
         };
-        let key = if impossible == BddRef::FALSE {
-            Some((k.lower, k.upper))
-        } else {
-            let mut e = Effort::new(WORK_PER_SIGNAL);
-            let bdd = &mut cx.functions.bdd;
-            (|| {
-                let possible = bdd.not(impossible, &mut e)?;
-                Ok::<_, implica_logic::Interrupted>((
-                    bdd.and(k.lower, possible, &mut e)?,
-                    bdd.and(k.upper, possible, &mut e)?,
-                ))
-            })()
-            .ok()
-        };
+        let key = key(cx, k);
         // Out of budget: say nothing about this signal.
         let Some(key) = key else { continue };
         match by_key.get(&key) {

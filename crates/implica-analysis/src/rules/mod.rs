@@ -5,6 +5,7 @@ pub mod constant_signal;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
 pub mod equivalent_signals;
+pub mod shared_terms;
 pub mod syntax_error;
 pub mod undeclared_assignment;
 pub mod undefined_output;
@@ -58,6 +59,7 @@ pub const ALL: &[Rule] = &[
     cyclic_definition::RULE,
     constant_signal::RULE,
     equivalent_signals::RULE,
+    shared_terms::RULE,
 ];
 
 /// What a rule sees of one document.
@@ -83,6 +85,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     cyclic_definition::check,
     constant_signal::check,
     equivalent_signals::check,
+    shared_terms::check,
 ];
 
 impl Rule {
