@@ -10,7 +10,9 @@
 //! use. A group is looked at only when every output in it has a known
 //! function, it reads at most 12 inputs and holds at most 8 outputs, and
 //! every output alone is minimized exactly within the default budget (so
-//! that "instead of" compares with true minima). Constant outputs and
+//! that "instead of" compares with true minima). Groups are taken in
+//! source order until 65,536 rows (outputs times input combinations) have
+//! been minimized in the document; later groups are not looked at. Constant outputs and
 //! outputs equal to an earlier one (`constant-signal`,
 //! `equivalent-signals`) are left out, and so is a saving that shares
 //! only single literals (`a` read by two outputs is no gate built once).
@@ -59,6 +61,9 @@ const MAX_INPUTS: usize = 12;
 /// Most outputs of one group (the multi-output prime generation visits
 /// sets of outputs).
 const MAX_GROUP: usize = if MAX_OUTPUTS < 8 { MAX_OUTPUTS } else { 8 };
+/// Most rows (outputs times input combinations) minimized per document,
+/// so that a file of many small groups stays quick to check.
+const MAX_TOTAL_ROWS: usize = 1 << 16;
 /// Shared terms listed in the message.
 const MAX_LISTED: usize = 6;
 
@@ -99,6 +104,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let root = find(&mut parent, k);
         groups[root].push(s);
     }
+    let mut rows_spent = 0usize;
     for group in groups {
         if group.iter().any(|&s| cx.functions.value(s).is_err()) {
             continue;
@@ -134,6 +140,11 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         if inputs.len() > MAX_INPUTS {
             continue;
         }
+        let rows = members.len() << inputs.len();
+        if rows_spent + rows > MAX_TOTAL_ROWS {
+            continue;
+        }
+        rows_spent += rows;
         if let Some(d) = group_report(cx, &members, &inputs) {
             out.push(d);
         }

@@ -61,11 +61,12 @@
 
 use super::constant_signal::{WORK_PER_SIGNAL, constants, never_notes};
 use super::{Ctx, Rule};
-use crate::model::{Body, SignalId, SignalKind};
+use crate::model::{Body, Model, SignalId, SignalKind};
 use crate::{Diagnostic, Related, Severity};
 use implica_logic::{BddRef, Effort, Interrupted};
 use implica_syntax::Span;
 use implica_syntax::ast::{Expr, ExprKind};
+use std::collections::HashMap;
 
 pub const RULE: Rule = Rule {
     name: "vacuous-input",
@@ -90,73 +91,93 @@ impl Dependence {
     }
 }
 
-/// For each input the signal reads, how its value depends on it; `None`
-/// when out of budget.
-fn dependences(
-    cx: &mut Ctx,
-    s: SignalId,
-    effort: &mut Effort,
-) -> Result<Vec<(usize, Dependence)>, Interrupted> {
-    let Ok(k) = cx.functions.value(s) else {
-        return Ok(Vec::new());
-    };
-    let reads = cx.functions.reads(s).to_vec();
-    let impossible = cx.functions.impossible;
-    let bdd = &mut cx.functions.bdd;
-    let mut support = bdd.support(k.lower);
-    support.extend(bdd.support(k.upper));
-    let mut local_impossible = None;
-    let mut out = Vec::with_capacity(reads.len());
-    for &i in &reads {
+/// How signals depend on inputs, worked out on demand and kept.
+struct Deps {
+    memo: HashMap<(SignalId, usize), Option<Dependence>>,
+    support: HashMap<SignalId, Vec<usize>>,
+    /// Per signal: the combinations impossible whatever the inputs it does
+    /// not read.
+    impossible: HashMap<SignalId, Option<BddRef>>,
+}
+
+impl Deps {
+    /// How `s` depends on input `i`: `None` for an input, a signal without
+    /// a known function, an input it does not read, or out of budget.
+    fn of(&mut self, cx: &mut Ctx, s: SignalId, i: usize) -> Option<Dependence> {
+        if let Some(&d) = self.memo.get(&(s, i)) {
+            return d;
+        }
+        let d = self.work_out(cx, s, i);
+        self.memo.insert((s, i), d);
+        d
+    }
+
+    fn work_out(&mut self, cx: &mut Ctx, s: SignalId, i: usize) -> Option<Dependence> {
+        let m = cx.model;
+        if m.signals[s].kind == SignalKind::Input
+            || m.definition_of(s).is_none()
+            || !cx.functions.reads(s).contains(&i)
+        {
+            return None;
+        }
+        let k = cx.functions.value(s).ok()?;
+        let support = self.support.entry(s).or_insert_with(|| {
+            let bdd = &cx.functions.bdd;
+            let mut v = bdd.support(k.lower);
+            v.extend(bdd.support(k.upper));
+            v
+        });
         if !support.contains(&i) {
-            out.push((i, Dependence::Ignores));
-            continue;
+            return Some(Dependence::Ignores);
         }
+        let impossible = cx.functions.impossible;
         if impossible == BddRef::FALSE {
-            out.push((i, Dependence::Depends));
-            continue;
+            return Some(Dependence::Depends);
         }
-        // Impossible whatever the inputs the signal does not read.
-        let imp = match local_impossible {
-            Some(x) => x,
+        let mut effort = Effort::new(WORK_PER_SIGNAL);
+        let e = &mut effort;
+        let imp = match self.impossible.get(&s) {
+            Some(&x) => x?,
             None => {
                 let mut others = vec![true; cx.functions.inputs];
-                for &r in &reads {
+                for &r in cx.functions.reads(s) {
                     others[r] = false;
                 }
-                let x = bdd.forall(impossible, &others, effort)?;
-                local_impossible = Some(x);
-                x
+                let x = cx.functions.bdd.forall(impossible, &others, e).ok();
+                self.impossible.insert(s, x);
+                x?
             }
         };
-        let (i0, i1) = (
-            bdd.restrict(imp, i, false, effort)?,
-            bdd.restrict(imp, i, true, effort)?,
-        );
-        let either = bdd.or(i0, i1, effort)?;
-        let both_possible = bdd.not(either, effort)?;
-        let mut depends = false;
-        for bound in [k.lower, k.upper] {
-            let (b0, b1) = (
-                bdd.restrict(bound, i, false, effort)?,
-                bdd.restrict(bound, i, true, effort)?,
-            );
-            let differ = bdd.xor(b0, b1, effort)?;
-            if bdd.and(differ, both_possible, effort)? != BddRef::FALSE {
-                depends = true;
-                break;
-            }
+        if imp == BddRef::FALSE {
+            return Some(Dependence::Depends);
         }
-        out.push((
-            i,
-            if depends {
-                Dependence::Depends
-            } else {
-                Dependence::IgnoresUnderNever
-            },
-        ));
+        let bdd = &mut cx.functions.bdd;
+        let depends = (|| -> Result<bool, Interrupted> {
+            let (i0, i1) = (
+                bdd.restrict(imp, i, false, e)?,
+                bdd.restrict(imp, i, true, e)?,
+            );
+            let either = bdd.or(i0, i1, e)?;
+            let both_possible = bdd.not(either, e)?;
+            for bound in [k.lower, k.upper] {
+                let (b0, b1) = (
+                    bdd.restrict(bound, i, false, e)?,
+                    bdd.restrict(bound, i, true, e)?,
+                );
+                let differ = bdd.xor(b0, b1, e)?;
+                if bdd.and(differ, both_possible, e)? != BddRef::FALSE {
+                    return Ok(true);
+                }
+            }
+            Ok(false)
+        })()
+        .ok()?;
+        Some(if depends {
+            Dependence::Depends
+        } else {
+            Dependence::IgnoresUnderNever
+        })
     }
-    Ok(out)
 }
 
 /// The names in an expression, in source order.
@@ -175,9 +196,9 @@ fn names<'e>(e: &'e Expr, out: &mut Vec<(&'e str, Span)>) {
 }
 
 /// Every name the definition of `s` reads, with its span.
-fn occurrences<'c>(cx: &'c Ctx, s: SignalId) -> Vec<(&'c str, Span)> {
+fn occurrences<'c>(m: &'c Model, s: SignalId) -> Vec<(&'c str, Span)> {
     let mut out = Vec::new();
-    if let Some(def) = cx.model.definition_of(s) {
+    if let Some(def) = m.definition_of(s) {
         match def.body {
             Body::Expr(e) => names(e, &mut out),
             Body::Terms(t) => out.extend(t.over.iter().map(|n| (n.text.as_str(), n.span))),
@@ -203,31 +224,18 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let consts = constants(cx);
     let m = cx.model;
     let n = m.signals.len();
-    // deps[s]: None for inputs, unknown or undefined signals and where the
-    // budget ran out.
-    let mut deps: Vec<Option<Vec<(usize, Dependence)>>> = vec![None; n];
-    for &s in &m.order {
-        if m.signals[s].kind == SignalKind::Input
-            || m.definition_of(s).is_none()
-            || cx.functions.value(s).is_err()
-        {
-            continue;
-        }
-        let mut e = Effort::new(WORK_PER_SIGNAL);
-        deps[s] = dependences(cx, s, &mut e).ok();
-    }
-    let dep = |deps: &[Option<Vec<(usize, Dependence)>>], s: SignalId, i: usize| {
-        deps[s]
-            .as_ref()
-            .and_then(|v| v.iter().find(|&&(j, _)| j == i).map(|&(_, d)| d))
+    let mut deps = Deps {
+        memo: HashMap::new(),
+        support: HashMap::new(),
+        impossible: HashMap::new(),
     };
     // Findings by input.
     let mut by_input: Vec<Vec<Finding>> = (0..m.inputs.len()).map(|_| Vec::new()).collect();
     for s in 0..n {
-        let Some(list) = &deps[s] else {
-            continue;
-        };
-        if consts[s].is_some() {
+        if m.signals[s].kind == SignalKind::Input
+            || consts[s].is_some()
+            || cx.functions.value(s).is_err()
+        {
             continue;
         }
         // The columns of a table share its inputs: one column ignoring an
@@ -249,11 +257,20 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         if columns.iter().find(|&&t| consts[t].is_none()) != Some(&s) {
             continue;
         }
-        let occ = occurrences(cx, s);
-        for &(i, d) in list {
-            let mut d = d;
+        let occ = occurrences(m, s);
+        // Only an input the definition names is reported: one that arrives
+        // only through other signals, each depending on it, cancels out in
+        // how they are combined, which is what combining them means.
+        let mut named: Vec<usize> = occ
+            .iter()
+            .filter_map(|&(name, _)| m.signal(name).and_then(|t| m.signals[t].input_index))
+            .collect();
+        named.sort_unstable();
+        named.dedup();
+        for i in named {
+            let mut d = Dependence::Ignores;
             for &t in &columns {
-                match dep(&deps, t, i) {
+                match deps.of(cx, t, i) {
                     Some(Dependence::IgnoresUnderNever) => d = Dependence::IgnoresUnderNever,
                     Some(Dependence::Ignores) => {}
                     _ => d = Dependence::Depends,
@@ -278,7 +295,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                 }
                 // Through a signal that already ignores the input, the
                 // fault is that signal's.
-                if dep(&deps, t, i).is_some_and(|d| d.ignores()) {
+                if deps.of(cx, t, i).is_some_and(|d| d.ignores()) {
                     continue;
                 }
                 carriers.push(Related {
@@ -288,13 +305,6 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                         m.signals[s].name
                     ),
                 });
-            }
-            // An input the definition does not name cancels out between
-            // the signals it combines: that is what combining them means,
-            // not a term written here.
-            let direct = occ.iter().any(|&(name, _)| name == input.as_str());
-            if !direct {
-                continue;
             }
             by_input[i].push(Finding {
                 signals: columns
@@ -321,10 +331,11 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         };
         // Does any signal depend on the input (or might it)?
         let ignored_everywhere = !cx.has_syntax_errors
+            && findings.len() > 1
             && (0..n).all(|s| {
                 m.signals[s].kind == SignalKind::Input
                     || !cx.functions.reads(s).contains(&i)
-                    || dep(&deps, s, i).is_some_and(|d| d.ignores())
+                    || deps.of(cx, s, i).is_some_and(|d| d.ignores())
             });
         let declaration = m.signals[b].declarations.first().copied();
         if let (true, true, Some(decl)) = (ignored_everywhere, findings.len() > 1, declaration) {
