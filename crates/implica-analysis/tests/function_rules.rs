@@ -231,3 +231,27 @@ fn shared_terms_are_looked_for_only_in_small_known_groups() {
     let src = "input a, b, c\noutput p, q\np = a & b | c\nq = a & b | !c\n";
     assert_eq!(messages(src, "shared-terms").len(), 1);
 }
+
+#[test]
+fn an_input_no_signal_depends_on_is_reported_once_at_its_declaration() {
+    // y = a | a & b is a, z = a & (b | !b) is a: neither depends on b.
+    let src = "input a, b\noutput y, z\ny = a | a & b\nz = a & (b | !b)\n";
+    let d = of_rule(src, "vacuous-input");
+    assert_eq!(d.len(), 1);
+    assert_eq!(
+        d[0].message,
+        "no signal depends on input `b`: `y` and `z` read it, but each is the same for `b`=0 and `b`=1 under every input"
+    );
+    assert_eq!(&src[d[0].span.start..d[0].span.end], "b");
+    assert_eq!(d[0].related.len(), 3);
+    // While a statement does not parse (it may read b), each is reported
+    // where it is.
+    let broken = format!("{src}let w = (b &\n");
+    assert_eq!(
+        messages(&broken, "vacuous-input"),
+        [
+            "`y` is the same for `b`=0 and `b`=1 under every input",
+            "`z` is the same for `b`=0 and `b`=1 under every input"
+        ]
+    );
+}

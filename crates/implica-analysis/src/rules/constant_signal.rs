@@ -39,6 +39,8 @@
 //! allows), and not when a comment stands inside the right-hand side, which
 //! the replacement would lose. Table columns are left to the author.
 //!
+//! When the work budget of a signal runs out, nothing is said about it.
+//!
 //! Default severity: warning.
 
 use super::{Ctx, Rule};

@@ -34,6 +34,8 @@
 //! equal to the first on every input combination and with no don't-cares,
 //! and only where the first does not read them (which would make a cycle).
 //!
+//! An output whose comparison runs out of its work budget is left out.
+//!
 //! Default severity: info.
 
 use super::constant_signal::{WORK_PER_SIGNAL, constants, rhs_span};

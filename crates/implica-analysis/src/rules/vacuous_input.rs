@@ -1,9 +1,9 @@
 //! # `vacuous-input`
 //!
-//! **What it finds.** An input that a signal reads, directly or through
-//! other signals, although the signal's value never depends on it: for
-//! every value of the other inputs, the signal is the same whether the
-//! input is 0 or 1.
+//! **What it finds.** An input that a definition names although the
+//! signal's value never depends on it, neither where it is named nor
+//! through the other signals the definition reads: for every value of the
+//! other inputs, the signal is the same whether the input is 0 or 1.
 //!
 //! - Input combinations excluded by `never` do not count: where one of the
 //!   two values of the input is impossible, there is nothing to compare.
@@ -29,10 +29,10 @@
 //! One fault, one report:
 //!
 //! - One report per signal and input, at the signal's definition, with
-//!   every place where the definition reads the input (or reads a signal
-//!   that carries it) as related places.
-//! - A signal that reads the input only through signals that already
-//!   ignore it is not reported again: the fault is in those signals.
+//!   every place where the definition names the input, and every signal
+//!   it reads through which the input arrives and still matters, as
+//!   related places. A signal read that already ignores the input is
+//!   that signal's fault, and not related.
 //! - When no signal at all depends on the input and more than one
 //!   definition would be reported, one report at the input's declaration
 //!   lists them instead.
@@ -53,9 +53,11 @@
 //!   That is what combining those signals means, not a term written in
 //!   the definition.
 //!
+//! When the work budget of a signal runs out, nothing is said about it.
+//!
 //! **Fix.** None offered: which definition is right is for the author to
-//! say. Rewriting the definition without the input (the minimal forms of
-//! `non-minimal` do that) keeps the signal's value.
+//! say. Rewriting the definition without the input (as `implica minimize`
+//! prints it) keeps the signal's value.
 //!
 //! Default severity: warning.
 
