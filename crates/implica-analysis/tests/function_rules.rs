@@ -255,3 +255,18 @@ fn an_input_no_signal_depends_on_is_reported_once_at_its_declaration() {
         ]
     );
 }
+
+#[test]
+fn never_on_other_inputs_can_hide_an_input() {
+    // never c & !a: where c is 1, a is 1, so in y = a | c & b the term c & b
+    // adds nothing: y is a, and neither b nor c matters. A constraint on an
+    // input z does not read (never d) hides nothing.
+    let src = "input a, b, c, d\noutput y, z\nnever c & !a\ny = a | c & b\nnever d\nz = a & b\n";
+    assert_eq!(
+        messages(src, "vacuous-input"),
+        [
+            "`y` is the same for `b`=0 and `b`=1 under every input combination that `never` allows",
+            "`y` is the same for `c`=0 and `c`=1 under every input combination that `never` allows"
+        ]
+    );
+}

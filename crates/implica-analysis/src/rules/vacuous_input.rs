@@ -126,7 +126,9 @@ impl Deps {
         let support = self.support.entry(s).or_insert_with(|| {
             let bdd = &cx.functions.bdd;
             let mut v = bdd.support(k.lower);
-            v.extend(bdd.support(k.upper));
+            if k.upper != k.lower {
+                v.extend(bdd.support(k.upper));
+            }
             v
         });
         if !support.contains(&i) {
@@ -150,7 +152,17 @@ impl Deps {
                 x?
             }
         };
-        if imp == BddRef::FALSE {
+        // A constraint on inputs the signal does not depend on cannot
+        // hide a dependence.
+        if imp == BddRef::FALSE
+            || (imp != BddRef::TRUE
+                && !cx
+                    .functions
+                    .bdd
+                    .support(imp)
+                    .iter()
+                    .any(|v| support.contains(v)))
+        {
             return Some(Dependence::Depends);
         }
         let bdd = &mut cx.functions.bdd;
