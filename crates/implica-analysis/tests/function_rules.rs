@@ -1,7 +1,8 @@
 //! The rules about signal functions (`constant-signal`, `vacuous-input`,
 //! `equivalent-signals`, `shared-terms`) beyond their fixtures: small
 //! documents worked out by hand (common practice: evaluating the
-//! definitions row by row), and the examples.
+//! definitions row by row), random documents against the test's own
+//! evaluation of every row, and the examples.
 
 use implica_analysis::{Diagnostic, analyze};
 use std::path::Path;
@@ -268,5 +269,135 @@ fn never_on_other_inputs_can_hide_an_input() {
             "`y` is the same for `b`=0 and `b`=1 under every input combination that `never` allows",
             "`y` is the same for `c`=0 and `c`=1 under every input combination that `never` allows"
         ]
+    );
+}
+
+/// A random expression over `n` inputs, as text with its truth table
+/// worked out by the test's own evaluation (independent of the engine).
+fn random_expr(
+    rnd: &mut impl FnMut(usize) -> usize,
+    n: usize,
+    depth: usize,
+) -> (String, Vec<bool>) {
+    let rows = 1usize << n;
+    if depth == 0 || rnd(4) == 0 {
+        let v = rnd(n);
+        // Variable 0 is the most significant bit of the row number.
+        let t = (0..rows).map(|r| (r >> (n - 1 - v)) & 1 == 1).collect();
+        return (format!("x{v}"), t);
+    }
+    match rnd(4) {
+        0 => {
+            let (s, t) = random_expr(rnd, n, depth - 1);
+            (format!("!({s})"), t.iter().map(|b| !b).collect())
+        }
+        k => {
+            let (a, ta) = random_expr(rnd, n, depth - 1);
+            let (b, tb) = random_expr(rnd, n, depth - 1);
+            let (op, f): (&str, fn(bool, bool) -> bool) = match k {
+                1 => ("&", |x, y| x & y),
+                2 => ("|", |x, y| x | y),
+                _ => ("^", |x, y| x ^ y),
+            };
+            let t = ta.iter().zip(&tb).map(|(&x, &y)| f(x, y)).collect();
+            (format!("({a}) {op} ({b})"), t)
+        }
+    }
+}
+
+#[test]
+fn findings_agree_with_brute_force_evaluation() {
+    let mut state = 0x9e37_79b9_7f4a_7c15u64;
+    let mut rnd = move |k: usize| {
+        state ^= state << 13;
+        state ^= state >> 7;
+        state ^= state << 17;
+        (state % k as u64) as usize
+    };
+    let n = 3;
+    let rows = 1usize << n;
+    let (mut constants, mut vacuous, mut equal) = (0, 0, 0);
+    for _ in 0..300 {
+        let (ys, yt) = random_expr(&mut rnd, n, 3);
+        let (zs, zt) = random_expr(&mut rnd, n, 3);
+        let src = format!("input x0, x1, x2\noutput y, z\ny = {ys}\nz = {zs}\n");
+        let a = analyze(&src);
+        assert!(
+            a.internal_errors.is_empty(),
+            "{src}: {:?}",
+            a.internal_errors
+        );
+        let got = |rule: &str| -> Vec<String> {
+            a.diagnostics
+                .iter()
+                .filter(|d| d.rule == rule)
+                .map(|d| d.message.clone())
+                .collect()
+        };
+        let is_const = |t: &[bool]| t.iter().all(|&b| b == t[0]);
+        let mut want_const = Vec::new();
+        for (name, t) in [("y", &yt), ("z", &zt)] {
+            if is_const(t) {
+                want_const.push(format!("`{name}` is always {}", u8::from(t[0])));
+            }
+        }
+        constants += want_const.len();
+        assert_eq!(got("constant-signal"), want_const, "{src}");
+        // Per signal, each named input it does not depend on; one input
+        // that neither signal depends on, named by both, is reported once
+        // at its declaration.
+        let named = |s: &str, v: usize| {
+            s.split(|c: char| !c.is_alphanumeric())
+                .any(|w| w == format!("x{v}"))
+        };
+        let ignores = |t: &[bool], v: usize| (0..rows).all(|r| t[r] == t[r ^ (1 << (n - 1 - v))]);
+        let mut want_vacuous = Vec::new();
+        for v in 0..n {
+            let mut found = Vec::new();
+            let mut every = true;
+            for (name, s, t) in [("y", &ys, &yt), ("z", &zs, &zt)] {
+                if !named(s, v) {
+                    continue;
+                }
+                every &= ignores(t, v);
+                if ignores(t, v) && !is_const(t) {
+                    found.push(name);
+                }
+            }
+            if found.len() == 2 && every {
+                want_vacuous.push(format!(
+                    "no signal depends on input `x{v}`: `y` and `z` read it, but each is the same for `x{v}`=0 and `x{v}`=1 under every input"
+                ));
+            } else {
+                for name in found {
+                    want_vacuous.push(format!(
+                        "`{name}` is the same for `x{v}`=0 and `x{v}`=1 under every input"
+                    ));
+                }
+            }
+        }
+        vacuous += want_vacuous.len();
+        let mut got_vacuous = got("vacuous-input");
+        got_vacuous.sort();
+        want_vacuous.sort();
+        assert_eq!(got_vacuous, want_vacuous, "{src}");
+        // The same bare name twice says they are equal on purpose.
+        let same_name = ys == zs && ys.starts_with('x') && ys.len() == 2;
+        let want_equal = yt == zt && !is_const(&yt) && !same_name;
+        equal += usize::from(want_equal);
+        assert_eq!(
+            got("equivalent-signals"),
+            if want_equal {
+                vec!["`z` computes the same function as `y`".to_string()]
+            } else {
+                vec![]
+            },
+            "{src}"
+        );
+    }
+    // The generated cases exercise every rule.
+    assert!(
+        constants > 10 && vacuous > 10 && equal > 3,
+        "{constants} {vacuous} {equal}"
     );
 }
