@@ -75,7 +75,7 @@ fn never_makes_a_signal_constant_without_a_fix() {
     assert_eq!(d.len(), 1);
     assert_eq!(
         d[0].message,
-        "`y` is 1 on every input combination that `never` allows"
+        "`y` is 1 on every input combination that `never` allows (it is 0 only where `never` excludes the inputs, as for a=1, b=0)"
     );
     assert!(d[0].fixes.is_empty());
     // When every combination is impossible, `never` is the fault, not y.

@@ -169,6 +169,29 @@ pub(crate) fn never_notes(cx: &Ctx) -> Vec<Related> {
         .collect()
 }
 
+/// An excluded input combination where `s` differs from `value`, written
+/// `a=1, b=0` over the inputs it reads.
+fn excluded_witness(cx: &mut Ctx, s: SignalId, value: bool) -> Option<String> {
+    let k = cx.functions.value(s).ok()?;
+    let mut e = Effort::new(WORK_PER_SIGNAL);
+    let bdd = &mut cx.functions.bdd;
+    let differs = if value {
+        bdd.not(k.lower, &mut e).ok()?
+    } else {
+        k.upper
+    };
+    let there = bdd.and(differs, cx.functions.impossible, &mut e).ok()?;
+    let point = bdd.any_one(there)?;
+    let m = cx.model;
+    let parts: Vec<String> = cx
+        .functions
+        .reads(s)
+        .iter()
+        .map(|&i| format!("{}={}", m.signals[m.inputs[i]].name, u8::from(point[i])))
+        .collect();
+    (!parts.is_empty()).then(|| parts.join(", "))
+}
+
 pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let consts = constants(cx);
     let m = cx.model;
@@ -195,10 +218,17 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let message = if c.everywhere {
             format!("`{}` is always {bit}", sig.name)
         } else {
-            format!(
+            let mut text = format!(
                 "`{}` is {bit} on every input combination that `never` allows",
                 sig.name
-            )
+            );
+            if let Some(w) = excluded_witness(cx, s, c.value) {
+                text.push_str(&format!(
+                    " (it is {} only where `never` excludes the inputs, as for {w})",
+                    1 - bit
+                ));
+            }
+            text
         };
         let mut d = RULE.at(def.target, message);
         d.help = Some(format!(
