@@ -2,12 +2,15 @@
 //! shown by `implica explain RULE`.
 
 pub mod assertion_failed;
+pub mod constant_signal;
 pub mod cyclic_definition;
 pub mod duplicate_definition;
 pub mod empty_constraint;
+pub mod equivalent_signals;
 pub mod non_minimal;
 pub mod redundant_literal;
 pub mod redundant_term;
+pub mod shared_terms;
 pub mod static_hazard;
 pub mod syntax_error;
 pub mod table_conflict;
@@ -20,6 +23,7 @@ pub mod unknown_rule;
 pub mod unused_constraint;
 pub mod unused_input;
 pub mod unused_signal;
+pub mod vacuous_input;
 pub mod vector_mismatch;
 
 use crate::functions::Functions;
@@ -62,6 +66,7 @@ pub const ALL: &[Rule] = &[
     undefined_output::RULE,
     undeclared_assignment::RULE,
     unused_input::RULE,
+    vacuous_input::RULE,
     unused_signal::RULE,
     cyclic_definition::RULE,
     redundant_term::RULE,
@@ -75,6 +80,9 @@ pub const ALL: &[Rule] = &[
     vector_mismatch::RULE,
     empty_constraint::RULE,
     unused_constraint::RULE,
+    constant_signal::RULE,
+    equivalent_signals::RULE,
+    shared_terms::RULE,
     unknown_rule::RULE,
 ];
 
@@ -142,6 +150,7 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     undefined_output::check,
     undeclared_assignment::check,
     unused_input::check,
+    vacuous_input::check,
     unused_signal::check,
     cyclic_definition::check,
     redundant_term::check,
@@ -155,6 +164,9 @@ pub(crate) const CHECKS: &[fn(&mut Ctx, &mut Vec<Diagnostic>)] = &[
     vector_mismatch::check,
     empty_constraint::check,
     unused_constraint::check,
+    constant_signal::check,
+    equivalent_signals::check,
+    shared_terms::check,
     unknown_rule::check,
 ];
 
