@@ -132,12 +132,25 @@ fn form(
         .bdd
         .to_cover_over(local.dc, &local.inputs, MAX_START_CUBES);
     let (Ok(start), Ok(dc)) = (start, dc) else {
-        let ones = f.bdd.fraction_ones(local.on) * 2f64.powi(k as i32);
+        // For a sum of products the target is the on-set, for a product of
+        // sums the off-set; either way, what is known is its size and a
+        // bound on the terms.
+        let size = f.bdd.fraction_ones(target) * 2f64.powi(k as i32);
+        let bound = match isolated(f, target, local, effort)? {
+            Some(n) => format!("; at least {n:.0} terms are needed"),
+            None => String::new(),
+        };
+        let (what, value) = if product_of_sums {
+            ("0", "sum terms")
+        } else {
+            ("1", "terms")
+        };
+        let bound = bound.replace("terms", value);
         return Ok(Err(NoForm {
             reason: format!(
-                "too large: it reads {k} inputs and is 1 on {ones:.0} of 2^{k} input \
+                "too large: it reads {k} inputs and is {what} on {size:.0} of 2^{k} input \
                  combinations; its function has more than {MAX_START_CUBES} disjoint terms, \
-                 past what the heuristic starts from"
+                 past what the heuristic starts from{bound}"
             ),
         }));
     };
@@ -153,6 +166,44 @@ fn form(
         method: Method::Heuristic,
         cover,
     }))
+}
+
+/// How many rows of `target` have no neighbour (one input flipped) in
+/// `target` or the don't-cares: each such row is a prime implicant of its
+/// own, which every two-level form must use, so their number is a lower
+/// bound on the terms. `None` when the count is 0 or takes too much work.
+fn isolated(
+    f: &mut Functions,
+    target: implica_logic::BddRef,
+    local: &Local,
+    effort: &mut Effort,
+) -> Result<Option<f64>, Interrupted> {
+    let bdd = &mut f.bdd;
+    let Ok(care) = bdd.or(target, local.dc, effort) else {
+        return Ok(None);
+    };
+    let mut alone = target;
+    for &i in &local.inputs {
+        // care with input i flipped: x_i ? care|x_i=0 : care|x_i=1
+        let step = (|| {
+            let lo = bdd.restrict(care, i, false, effort)?;
+            let hi = bdd.restrict(care, i, true, effort)?;
+            let x = bdd.var(i)?;
+            let nx = bdd.not(x, effort)?;
+            let a = bdd.and(x, lo, effort)?;
+            let b = bdd.and(nx, hi, effort)?;
+            let flipped = bdd.or(a, b, effort)?;
+            let none = bdd.not(flipped, effort)?;
+            bdd.and(alone, none, effort)
+        })();
+        match step {
+            Ok(r) => alone = r,
+            Err(Interrupted::Cancelled) => return Err(Interrupted::Cancelled),
+            Err(Interrupted::OutOfBudget) => return Ok(None),
+        }
+    }
+    let n = bdd.fraction_ones(alone) * 2f64.powi(local.inputs.len() as i32);
+    Ok((n >= 1.0).then_some(n))
 }
 
 fn expression(cover: &Cover, product_of_sums: bool) -> BoolExpr {
