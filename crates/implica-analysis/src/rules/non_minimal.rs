@@ -19,6 +19,10 @@
 //! vent = hot & !rain | hot & rain & humid | hot & humid & !rain   # 8 literals; hot & (humid | !rain) has 3
 //! ```
 //!
+//! Past the exact search budget the forms are the best found, and the
+//! message says so ("12 terms found, at least 10 needed"); they are still
+//! proven equivalent.
+//!
 //! One fault, one report: when dropping the terms and literals that
 //! `redundant-term` and `redundant-literal` report already reaches the
 //! minimal cost, only those are reported.
@@ -79,6 +83,17 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                 plural(pos.cover.len()),
             ),
         );
+        // Past the search budget the forms are the best found: say what is
+        // proven about them.
+        for (m, kind) in [(sop, "sum of products"), (pos, "product of sums")] {
+            if !m.proven_minimal {
+                d.message.push_str(&format!(
+                    "; the {kind} is not proven minimal: {} terms found, at least {} needed",
+                    m.cover.len(),
+                    m.lower_bound
+                ));
+            }
+        }
         d.help = Some(if sl <= pl {
             format!("write `{sop_text}`")
         } else {
