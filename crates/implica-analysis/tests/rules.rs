@@ -291,7 +291,7 @@ fn non_minimal_says_what_is_proven_past_the_budget() {
         state ^= state << 13;
         state ^= state >> 7;
         state ^= state << 17;
-        if state % 2 == 0 {
+        if state.is_multiple_of(2) {
             let lits: Vec<String> = (0..8)
                 .map(|i| {
                     let bit = (m >> (7 - i)) & 1 == 1;
