@@ -64,6 +64,33 @@ pub fn select(model: &Model, doc: &Document, names: &[String]) -> Result<Vec<Sig
         .collect()
 }
 
+/// Loads `path`, builds its model, selects the signals and computes their
+/// functions, then hands them to `report`; a file that cannot be read or a
+/// `--signal` that names no defined signal exits with status 2.
+pub fn run_on(
+    path: &Path,
+    signals: &[String],
+    report: impl FnOnce(&Document, &Model, Vec<SignalId>, &mut Functions) -> std::process::ExitCode,
+) -> std::process::ExitCode {
+    let doc = match load(path) {
+        Ok(d) => d,
+        Err(e) => {
+            eprintln!("implica: {e}");
+            return std::process::ExitCode::from(2);
+        }
+    };
+    let model = Model::build(&doc.file);
+    let selected = match select(&model, &doc, signals) {
+        Ok(s) => s,
+        Err(e) => {
+            eprintln!("implica: {e}");
+            return std::process::ExitCode::from(2);
+        }
+    };
+    let mut f = functions(&model);
+    report(&doc, &model, selected, &mut f)
+}
+
 /// Computes every signal's function, with the default work per definition.
 pub fn functions(model: &Model) -> Functions {
     Functions::compute(

@@ -31,22 +31,19 @@ pub enum MinimizeFormat {
 const WORK_PER_SIGNAL: u64 = 200_000_000;
 
 pub fn run(path: &Path, signals: &[String], form: Form2, format: MinimizeFormat) -> ExitCode {
-    let doc = match document::load(path) {
-        Ok(d) => d,
-        Err(e) => {
-            eprintln!("implica: {e}");
-            return ExitCode::from(2);
-        }
-    };
-    let model = Model::build(&doc.file);
-    let selected = match document::select(&model, &doc, signals) {
-        Ok(s) => s,
-        Err(e) => {
-            eprintln!("implica: {e}");
-            return ExitCode::from(2);
-        }
-    };
-    let mut functions = document::functions(&model);
+    document::run_on(path, signals, |doc, model, selected, functions| {
+        report(doc, model, selected, functions, form, format)
+    })
+}
+
+fn report(
+    doc: &document::Document,
+    model: &Model,
+    selected: Vec<usize>,
+    functions: &mut implica_analysis::functions::Functions,
+    form: Form2,
+    format: MinimizeFormat,
+) -> ExitCode {
     let (sop, pos) = (form != Form2::Pos, form != Form2::Sop);
     let mut failed = false;
     let mut out_json = Vec::new();
@@ -54,12 +51,12 @@ pub fn run(path: &Path, signals: &[String], form: Form2, format: MinimizeFormat)
     for s in selected {
         let name = model.signals[s].name.to_string();
         let mut effort = Effort::new(WORK_PER_SIGNAL);
-        let forms = minimal_forms(&mut functions, s, sop, pos, &Budget::default(), &mut effort);
+        let forms = minimal_forms(functions, s, sop, pos, &Budget::default(), &mut effort);
         let forms = match forms {
             Ok(Ok(f)) => f,
             Ok(Err(u)) => {
                 failed = true;
-                let why = document::explain(&model, u);
+                let why = document::explain(model, u);
                 text.push_str(&format!("{name}: no function: {why}\n\n"));
                 out_json.push(json!({"name": name, "inputs": [], "error": why}));
                 continue;
@@ -72,7 +69,7 @@ pub fn run(path: &Path, signals: &[String], form: Form2, format: MinimizeFormat)
                 continue;
             }
         };
-        let inputs = document::input_names(&model, &forms.local.inputs);
+        let inputs = document::input_names(model, &forms.local.inputs);
         let render = |f: &Form| f.expression.to_text(&|i| inputs[i].clone());
         let mut entry = json!({"name": name, "inputs": inputs});
         text.push_str(&name);

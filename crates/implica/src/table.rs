@@ -33,22 +33,19 @@ struct Tabled {
 }
 
 pub fn run(path: &Path, signals: &[String], format: TableFormat, max_rows: usize) -> ExitCode {
-    let doc = match document::load(path) {
-        Ok(d) => d,
-        Err(e) => {
-            eprintln!("implica: {e}");
-            return ExitCode::from(2);
-        }
-    };
-    let model = Model::build(&doc.file);
-    let selected = match document::select(&model, &doc, signals) {
-        Ok(s) => s,
-        Err(e) => {
-            eprintln!("implica: {e}");
-            return ExitCode::from(2);
-        }
-    };
-    let mut functions = document::functions(&model);
+    document::run_on(path, signals, |doc, model, selected, functions| {
+        report(doc, model, selected, functions, format, max_rows)
+    })
+}
+
+fn report(
+    doc: &document::Document,
+    model: &Model,
+    selected: Vec<usize>,
+    functions: &mut implica_analysis::functions::Functions,
+    format: TableFormat,
+    max_rows: usize,
+) -> ExitCode {
     let mut failed = false;
     let mut tabled: Vec<Result<Tabled, (String, String)>> = Vec::new();
     for &s in &selected {
@@ -58,7 +55,7 @@ pub fn run(path: &Path, signals: &[String], format: TableFormat, max_rows: usize
             Ok(Ok(l)) => l,
             Ok(Err(u)) => {
                 failed = true;
-                tabled.push(Err((name, document::explain(&model, u))));
+                tabled.push(Err((name, document::explain(model, u))));
                 continue;
             }
             Err(_) => {
@@ -95,7 +92,7 @@ pub fn run(path: &Path, signals: &[String], format: TableFormat, max_rows: usize
                 .map(|t| match t {
                     Ok(t) => json!({
                         "name": t.name,
-                        "inputs": document::input_names(&model, &t.inputs),
+                        "inputs": document::input_names(model, &t.inputs),
                         "on": t.on.minterms(),
                         "dc": t.dc.minterms(),
                     }),
@@ -107,10 +104,10 @@ pub fn run(path: &Path, signals: &[String], format: TableFormat, max_rows: usize
             None
         }
         TableFormat::Text => {
-            print_text(&model, &mut functions, &selected, &tabled, max_rows);
+            print_text(model, functions, &selected, &tabled, max_rows);
             None
         }
-        TableFormat::Csv => Some(print_csv(&model, &tabled)),
+        TableFormat::Csv => Some(print_csv(model, &tabled)),
     };
     for t in &tabled {
         if let Err((name, why)) = t {

@@ -89,6 +89,28 @@ pub const ALL: &[Rule] = &[
 /// Rules that run only when the configuration turns them on.
 pub const OFF_BY_DEFAULT: &[&str] = &["static-hazard"];
 
+/// The definitions that count (each signal's first) whose right-hand side
+/// is an expression, with their ids.
+pub(crate) fn expression_definitions<'a, 'f>(
+    m: &'a Model<'f>,
+) -> impl Iterator<
+    Item = (
+        usize,
+        &'a crate::model::Definition<'f>,
+        &'f implica_syntax::ast::Expr,
+    ),
+> + 'a {
+    m.definitions
+        .iter()
+        .enumerate()
+        .filter_map(move |(id, def)| {
+            let crate::model::Body::Expr(e) = def.body else {
+                return None;
+            };
+            (m.signals[def.signal].definitions.first() == Some(&id)).then_some((id, def, e))
+        })
+}
+
 /// What a rule sees of one document.
 pub struct Ctx<'a, 'f> {
     pub src: &'a str,
@@ -125,6 +147,25 @@ impl Ctx<'_, '_> {
             .map(std::rc::Rc::new);
         self.forms.insert(id, f.clone());
         f
+    }
+
+    /// The expression of definition `id` as a two-level form over its
+    /// names, for the redundancy rules: `None` when it is not one, or when
+    /// `non-minimal` reports it (with a fix that goes further).
+    pub(crate) fn redundancy_target<'e>(
+        &mut self,
+        id: usize,
+        e: &'e implica_syntax::ast::Expr,
+    ) -> Option<(
+        std::rc::Rc<crate::forms::ExprFunction>,
+        crate::forms::TwoLevel<'e>,
+    )> {
+        let f = self.expr_function(id, e)?;
+        if self.non_minimal(id, e, &f).is_some() {
+            return None;
+        }
+        let t = crate::forms::two_level(e, &f.names)?;
+        Some((f, t))
     }
 
     /// [`crate::forms::non_minimal_applies`] for definition `id`, once.

@@ -40,7 +40,6 @@
 use super::{Ctx, Rule};
 use crate::config::PreferredForm;
 use crate::forms::written_literals;
-use crate::model::Body;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 use implica_logic::BoolExpr;
 
@@ -53,11 +52,7 @@ pub const RULE: Rule = Rule {
 
 pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let m = cx.model;
-    for (id, def) in m.definitions.iter().enumerate() {
-        let Body::Expr(e) = def.body else { continue };
-        if m.signals[def.signal].definitions.first() != Some(&id) {
-            continue;
-        }
+    for (id, def, e) in super::expression_definitions(m) {
         let written = written_literals(e);
         let Some(f) = cx.expr_function(id, e) else {
             continue;

@@ -29,8 +29,7 @@
 //! Default severity: warning.
 
 use super::{Ctx, Rule};
-use crate::forms::{Shape, operand_removal, redundancy, two_level};
-use crate::model::Body;
+use crate::forms::{Shape, operand_removal, redundancy};
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 
 pub const RULE: Rule = Rule {
@@ -42,19 +41,8 @@ pub const RULE: Rule = Rule {
 
 pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let m = cx.model;
-    for (id, def) in m.definitions.iter().enumerate() {
-        let Body::Expr(e) = def.body else { continue };
-        if m.signals[def.signal].definitions.first() != Some(&id) {
-            continue;
-        }
-        let Some(f) = cx.expr_function(id, e) else {
-            continue;
-        };
-        if cx.non_minimal(id, e, &f).is_some() {
-            // `non-minimal` reports it, with a fix that goes further.
-            continue;
-        }
-        let Some(t) = two_level(e, &f.names) else {
+    for (id, def, e) in super::expression_definitions(m) {
+        let Some((f, t)) = cx.redundancy_target(id, e) else {
             continue;
         };
         let r = redundancy(&t, &f);

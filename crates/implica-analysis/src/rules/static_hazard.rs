@@ -32,7 +32,6 @@
 
 use super::{Ctx, Rule};
 use crate::forms::{Shape, two_level};
-use crate::model::Body;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 use implica_logic::{BoolExpr, Cover, Cube, hazard_free_cover, static1_hazards};
 
@@ -72,11 +71,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         return;
     }
     let m = cx.model;
-    for (id, def) in m.definitions.iter().enumerate() {
-        let Body::Expr(e) = def.body else { continue };
-        if m.signals[def.signal].definitions.first() != Some(&id) {
-            continue;
-        }
+    for (id, def, e) in super::expression_definitions(m) {
         let Some(f) = cx.expr_function(id, e) else {
             continue;
         };
