@@ -36,6 +36,24 @@ pub fn apply(src: &str, edits: &[Edit]) -> Result<String, String> {
     Ok(out)
 }
 
+/// The signal of the fixed document that stands for signal `s` of the
+/// original: `None` for an input, or for an intermediate (or undefined)
+/// signal the fix removed; an error for an output it would leave undefined.
+fn counterpart(old: &Model, new: &Model, s: usize) -> Result<Option<usize>, String> {
+    let sig = &old.signals[s];
+    if sig.kind == SignalKind::Input {
+        return Ok(None);
+    }
+    match new
+        .signal(&sig.name)
+        .filter(|&t| !new.signals[t].definitions.is_empty())
+    {
+        Some(t) => Ok(Some(t)),
+        None if sig.kind == SignalKind::Intermediate || sig.definitions.is_empty() => Ok(None),
+        None => Err(format!("`{}` would no longer be defined", sig.name)),
+    }
+}
+
 /// The proof of a fix that rewrites the right-hand side of one expression
 /// definition: the new expression must compute the same function (where
 /// inputs can occur) as the old, over the same signals; then no reader can
@@ -184,17 +202,8 @@ pub fn verify_in(
         .not(functions.impossible, &mut effort)
         .map_err(|_| "out of budget".to_string())?;
     for (s, sig) in model.signals.iter().enumerate() {
-        if sig.kind == SignalKind::Input {
+        let Some(t) = counterpart(model, &new, s)? else {
             continue;
-        }
-        let Some(t) = new
-            .signal(&sig.name)
-            .filter(|&t| !new.signals[t].definitions.is_empty())
-        else {
-            if sig.kind == SignalKind::Intermediate || sig.definitions.is_empty() {
-                continue;
-            }
-            return Err(format!("`{}` would no longer be defined", sig.name));
         };
         match (functions.value(s), edited.values[t]) {
             (Ok(a), Ok(b)) => {
@@ -298,17 +307,8 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
         return Err("the impossible inputs (`never`) would change".to_string());
     }
     for (s, sig) in old.signals.iter().enumerate() {
-        if sig.kind == SignalKind::Input {
+        let Some(t) = counterpart(&old, &new, s)? else {
             continue;
-        }
-        let Some(t) = new
-            .signal(&sig.name)
-            .filter(|&t| !new.signals[t].definitions.is_empty())
-        else {
-            if sig.kind == SignalKind::Intermediate || sig.definitions.is_empty() {
-                continue;
-            }
-            return Err(format!("`{}` would no longer be defined", sig.name));
         };
         match (fo.value(s), fnew.value(t)) {
             (Ok(a), Ok(b)) => {
