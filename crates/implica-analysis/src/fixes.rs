@@ -329,3 +329,85 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
     }
     Ok(after)
 }
+
+/// The result of [`fix_all`].
+#[derive(Debug, Clone)]
+pub struct FixAll {
+    /// The text with the fixes applied.
+    pub text: String,
+    /// Each applied fix: its rule and title.
+    pub applied: Vec<(&'static str, String)>,
+    /// Fixes a rule offered that failed their proof (see [`crate::Analysis`]).
+    pub internal_errors: Vec<String>,
+}
+
+/// Most rounds of [`fix_all`]: a fix may make another finding appear (a
+/// signal left unused), which the next round fixes.
+const MAX_ROUNDS: usize = 8;
+
+/// Applies every safe fix (and, with `review`, the fixes to review too),
+/// round after round until none is left. In a round, the first fix of each
+/// diagnostic is taken unless its edits overlap one already taken; the
+/// round's result is proven equivalent as a whole, and when that proof
+/// fails the round's fixes are applied one at a time instead, each proven
+/// again.
+pub fn fix_all(src: &str, config: &crate::config::Config, review: bool) -> FixAll {
+    let mut text = src.to_string();
+    let mut applied = Vec::new();
+    let mut internal_errors = Vec::new();
+    for _ in 0..MAX_ROUNDS {
+        let a = crate::analyze_with(&text, config);
+        internal_errors.extend(a.internal_errors);
+        let mut taken: Vec<(&'static str, &Fix)> = Vec::new();
+        for d in &a.diagnostics {
+            let Some(f) = d
+                .fixes
+                .iter()
+                .find(|f| review || f.applicability == crate::Applicability::Safe)
+            else {
+                continue;
+            };
+            let clash = f.edits.iter().any(|e| {
+                taken.iter().flat_map(|(_, t)| &t.edits).any(|t| {
+                    t != e
+                        && e.span.start < t.span.end.max(t.span.start + 1)
+                        && t.span.start < e.span.end.max(e.span.start + 1)
+                })
+            });
+            if !clash {
+                taken.push((d.rule, f));
+            }
+        }
+        if taken.is_empty() {
+            break;
+        }
+        let together = Fix {
+            title: "all fixes of this round".to_string(),
+            applicability: crate::Applicability::Safe,
+            edits: taken.iter().flat_map(|(_, f)| f.edits.clone()).collect(),
+        };
+        match verify(&text, &together) {
+            Ok(next) => {
+                applied.extend(taken.iter().map(|(r, f)| (*r, f.title.clone())));
+                text = next;
+            }
+            Err(_) => {
+                // One at a time: the first that still proves goes in, and the
+                // next round looks again.
+                let Some((rule, next)) = taken
+                    .iter()
+                    .find_map(|(r, f)| verify(&text, f).ok().map(|t| ((*r, f.title.clone()), t)))
+                else {
+                    break;
+                };
+                applied.push(rule);
+                text = next;
+            }
+        }
+    }
+    FixAll {
+        text,
+        applied,
+        internal_errors,
+    }
+}

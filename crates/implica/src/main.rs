@@ -4,6 +4,7 @@
 mod check;
 mod document;
 mod files;
+mod fix;
 mod fmt;
 mod minimize;
 mod project;
@@ -53,6 +54,26 @@ enum Command {
         /// Do not write; list the files that would change and exit 1 if there are any.
         #[arg(long)]
         check: bool,
+    },
+    /// Apply the fixes that are proven not to change any signal, in place (directories are
+    /// searched recursively; `-` fixes standard input to standard output).
+    ///
+    /// Each fix was proven equivalent before it is offered; the fixes of one pass are proven
+    /// again together, and passes repeat while fixes remain (a removed term may leave an
+    /// input unused, which the next pass removes). Writes are atomic and keep permissions; a
+    /// file that changed on disk meanwhile is left alone. Exit status: 0 when done, 1 when
+    /// errors remain that no fix resolves, 2 when a file could not be read or written.
+    Fix {
+        /// Files or directories to fix.
+        #[arg(required = true)]
+        paths: Vec<PathBuf>,
+        /// Also apply the fixes to review (they may change the file's interface, such as
+        /// declaring a new output).
+        #[arg(long = "unsafe")]
+        review: bool,
+        /// Print a unified diff of the fixes instead of writing them.
+        #[arg(long)]
+        diff: bool,
     },
     /// Print each signal's minimal sum of products and product of sums, with cost and
     /// certificate.
@@ -127,6 +148,11 @@ fn main() -> ExitCode {
     match cli.command {
         Command::Check { paths, format } => check::run(&paths, format),
         Command::Fmt { paths, check } => fmt::run(&paths, check),
+        Command::Fix {
+            paths,
+            review,
+            diff,
+        } => fix::run(&paths, review, diff),
         Command::Minimize {
             file,
             signals,

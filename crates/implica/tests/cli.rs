@@ -385,3 +385,73 @@ fn implica_rule_names() -> Vec<&'static str> {
         "static-hazard",
     ]
 }
+
+#[test]
+fn fix_applies_proven_fixes_and_keeps_every_output() {
+    let dir = tempfile::tempdir().unwrap();
+    let src = "input a, b, c, spare\noutput y, z\n# the lift chime\ny = a & b | a & b & c | !a & b  # as first drafted\nz = a | !a & c\n";
+    let path = temp_file(&dir, "chime.imp", src.as_bytes());
+    let p = path.to_str().unwrap();
+    // One CSV table over every input both outputs read, before and after.
+    let before = stdout(&implica(&["table", p, "--format", "csv"]));
+    // --diff shows the change and writes nothing.
+    let out = implica(&["fix", "--diff", p]);
+    assert_eq!(out.status.code(), Some(0));
+    let diff = stdout(&out);
+    assert!(
+        diff.starts_with(&format!("--- {p}\n+++ {p} (fixed)\n@@ ")),
+        "{diff}"
+    );
+    for line in [
+        "-y = a & b | a & b & c | !a & b  # as first drafted\n",
+        "+y = b  # as first drafted\n",
+        "-z = a | !a & c\n",
+        "+z = a | c\n",
+        " # the lift chime\n",
+    ] {
+        assert!(diff.contains(line), "{line} not in {diff}");
+    }
+    assert_eq!(fs::read_to_string(&path).unwrap(), src);
+    // Without --diff the file is rewritten; comments stay; the unused input
+    // stays too (removing it changes the interface: only with --unsafe).
+    let out = implica(&["fix", p]);
+    assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
+    let fixed = fs::read_to_string(&path).unwrap();
+    assert_eq!(
+        fixed,
+        "input a, b, c, spare\noutput y, z\n# the lift chime\ny = b  # as first drafted\nz = a | c\n"
+    );
+    // Every output computes what it did, row by row.
+    assert!(before.starts_with("a,b,c,y,z\n"), "{before}");
+    assert_eq!(stdout(&implica(&["table", p, "--format", "csv"])), before);
+    // --unsafe also removes the unused inputs.
+    let out = implica(&["fix", "--unsafe", p]);
+    assert_eq!(out.status.code(), Some(0));
+    assert!(
+        fs::read_to_string(&path)
+            .unwrap()
+            .starts_with("input a, b, c\n")
+    );
+    // Nothing left to fix.
+    let out = implica(&["fix", p]);
+    assert_eq!(out.status.code(), Some(0));
+    assert!(stderr(&out).contains("nothing to fix"));
+}
+
+#[test]
+fn fix_on_standard_input_and_errors_left() {
+    let out = implica_stdin(&["fix", "-"], b"input a, b\noutput y\ny = a & b | a & b\n");
+    assert_eq!(out.status.code(), Some(0));
+    assert_eq!(stdout(&out), "input a, b\noutput y\ny = a & b\n");
+    // An undefined name has no safe fix: the error is left, exit 1.
+    let out = implica_stdin(
+        &["fix", "-"],
+        b"input a\noutput y\ny = a & ghost | a & ghost\n",
+    );
+    assert_eq!(out.status.code(), Some(1));
+    assert!(
+        stderr(&out).contains("error left that no fix resolves"),
+        "{}",
+        stderr(&out)
+    );
+}

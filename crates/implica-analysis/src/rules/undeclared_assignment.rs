@@ -17,9 +17,9 @@
 //! wanted = hot          # not an output: write `let wanted = hot`
 //! ```
 //!
-//! **Fix.** Two, both to choose from: add `let` (safe: no signal changes),
-//! or declare the name as an output (to review: it changes what the file
-//! exports).
+//! **Fix.** Two, to choose from (both to review: which one was meant is
+//! not known): add `let` (no signal changes), or declare the name as an
+//! output (it changes what the file exports).
 //!
 //! Default severity: error.
 
@@ -78,7 +78,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         if let Some(at) = let_at {
             d.fixes.push(Fix {
                 title: "make it an intermediate signal with `let`".to_string(),
-                applicability: Applicability::Safe,
+                applicability: Applicability::NeedsReview,
                 edits: vec![Edit {
                     span: implica_syntax::Span::new(at, at),
                     new_text: "let ".to_string(),

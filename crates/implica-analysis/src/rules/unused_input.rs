@@ -19,8 +19,9 @@
 //! (An input that is read, but that a signal's value does not depend on, is
 //! `vacuous-input`.)
 //!
-//! **Fix.** Remove the declaration (safe: no signal changes; it does change
-//! the inputs of whatever is exported from the file).
+//! **Fix.** Remove the declaration (to review: no signal changes, but the
+//! inputs of whatever is exported from the file do, so `implica fix`
+//! applies it only with `--unsafe`).
 //!
 //! Not reported while the file has syntax errors: the statement that does
 //! not parse may be the one that reads it.
@@ -57,7 +58,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         if let Some(edit) = removal(cx.src, m.file, decl) {
             d.fixes.push(Fix {
                 title: format!("remove the input `{}`", sig.name),
-                applicability: Applicability::Safe,
+                applicability: Applicability::NeedsReview,
                 edits: vec![edit],
             });
         }
