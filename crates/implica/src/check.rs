@@ -36,7 +36,7 @@ impl Summary {
     }
 }
 
-pub fn run(paths: &[PathBuf], format: OutputFormat) -> ExitCode {
+pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> ExitCode {
     let (inputs, problems) = files::collect(paths);
     let mut summary = Summary::default();
     for p in &problems {
@@ -106,7 +106,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat) -> ExitCode {
     }
     if summary.unreadable > 0 || configs.errors > 0 {
         ExitCode::from(2)
-    } else if summary.errors > 0 {
+    } else if summary.errors > 0 || (deny_warnings && summary.warnings > 0) {
         ExitCode::from(1)
     } else {
         ExitCode::SUCCESS

@@ -31,8 +31,9 @@ struct Cli {
 enum Command {
     /// Report the faults in `.imp` files (directories are searched recursively; `-` reads standard input).
     ///
-    /// Exit status: 0 when nothing at error severity was found, 1 when something was,
-    /// 2 when a file could not be read or the arguments are wrong.
+    /// Exit status: 0 when nothing at error severity was found, 1 when something was (or,
+    /// with --deny warnings, when a warning was), 2 when a file could not be read or the
+    /// arguments are wrong.
     Check {
         /// Files or directories to check.
         #[arg(required = true)]
@@ -40,6 +41,9 @@ enum Command {
         /// Output format.
         #[arg(long, value_enum, default_value_t = OutputFormat::Human)]
         format: OutputFormat,
+        /// Exit 1 also when there are diagnostics of this severity (`warnings`).
+        #[arg(long, value_enum, value_name = "WHAT")]
+        deny: Option<Deny>,
     },
     /// Rewrite `.imp` files in the canonical layout (directories are searched recursively).
     ///
@@ -134,6 +138,13 @@ enum Command {
     },
 }
 
+/// What `implica check --deny` turns into a failure.
+#[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum Deny {
+    /// Warnings fail the check as errors do.
+    Warnings,
+}
+
 /// Formats of `implica check` output.
 #[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
 pub enum OutputFormat {
@@ -146,7 +157,11 @@ pub enum OutputFormat {
 fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
-        Command::Check { paths, format } => check::run(&paths, format),
+        Command::Check {
+            paths,
+            format,
+            deny,
+        } => check::run(&paths, format, deny == Some(Deny::Warnings)),
         Command::Fmt { paths, check } => fmt::run(&paths, check),
         Command::Fix {
             paths,

@@ -455,3 +455,16 @@ fn fix_on_standard_input_and_errors_left() {
         stderr(&out)
     );
 }
+
+#[test]
+fn deny_warnings_turns_warnings_into_a_failure() {
+    let src: &[u8] = b"input a, b\noutput y\ny = a & b | a & b\n";
+    let out = implica_stdin(&["check", "-"], src);
+    assert_eq!(out.status.code(), Some(0));
+    let out = implica_stdin(&["check", "--deny", "warnings", "-"], src);
+    assert_eq!(out.status.code(), Some(1));
+    // Notes do not count.
+    let clean: &[u8] = b"input a, b\noutput y\ny = a & b\n";
+    let out = implica_stdin(&["check", "--deny", "warnings", "-"], clean);
+    assert_eq!(out.status.code(), Some(0));
+}
