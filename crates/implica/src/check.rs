@@ -69,6 +69,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
                 let index = LineIndex::new(&text);
                 json_diags.extend(diags.iter().map(|d| to_json(&name, &text, &index, d)));
             }
+            OutputFormat::Github => print_github(&name, &text, &diags),
         }
     }
     match format {
@@ -89,6 +90,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
             }
             println!("{line}");
         }
+        OutputFormat::Github => {}
         OutputFormat::Json => {
             let doc = json!({
                 "diagnostics": json_diags,
@@ -156,6 +158,44 @@ fn to_json(file: &str, text: &str, index: &LineIndex, d: &Diagnostic) -> Value {
         "related": related,
         "fixes": fixes,
     })
+}
+
+/// Prints one workflow command per diagnostic, in the format GitHub Actions
+/// documents for annotations: `::error file=F,line=L,col=C,endLine=L,endColumn=C,title=T::MESSAGE`,
+/// with `%`, line breaks, and (in properties) `:` and `,` escaped.
+fn print_github(name: &str, text: &str, diags: &[Diagnostic]) {
+    let index = LineIndex::new(text);
+    let data = |s: &str| {
+        s.replace('%', "%25")
+            .replace('\r', "%0D")
+            .replace('\n', "%0A")
+    };
+    let prop = |s: &str| data(s).replace(':', "%3A").replace(',', "%2C");
+    for d in diags {
+        let level = match d.severity {
+            Severity::Error => "error",
+            Severity::Warning => "warning",
+            Severity::Info | Severity::Hint => "notice",
+        };
+        let (a, b) = (
+            index.line_col(text, d.span.start),
+            index.line_col(text, d.span.end),
+        );
+        let mut message = d.message.clone();
+        if let Some(h) = &d.help {
+            message.push_str(&format!("\nhelp: {h}"));
+        }
+        println!(
+            "::{level} file={},line={},col={},endLine={},endColumn={},title={}::{}",
+            prop(name),
+            a.line + 1,
+            a.col + 1,
+            b.line + 1,
+            b.col + 1,
+            prop(&format!("implica {}", d.rule)),
+            data(&message)
+        );
+    }
 }
 
 /// Prints diagnostics with source snippets, in colour only on a terminal.

@@ -152,6 +152,9 @@ pub enum OutputFormat {
     Human,
     /// One JSON document (schema in docs/json-output.md).
     Json,
+    /// One GitHub Actions workflow command per diagnostic (`::error file=...::...`), so
+    /// that findings appear as annotations on the changed lines.
+    Github,
 }
 
 fn main() -> ExitCode {

@@ -468,3 +468,15 @@ fn deny_warnings_turns_warnings_into_a_failure() {
     let out = implica_stdin(&["check", "--deny", "warnings", "-"], clean);
     assert_eq!(out.status.code(), Some(0));
 }
+
+#[test]
+fn github_annotations() {
+    let src: &[u8] = b"input a, b\noutput y\ny = a & b | a & b\n";
+    let out = implica_stdin(&["check", "--format", "github", "-"], src);
+    assert_eq!(out.status.code(), Some(0));
+    assert_eq!(
+        stdout(&out),
+        "::warning file=<stdin>,line=3,col=13,endLine=3,endColumn=18,title=implica redundant-term::\
+         the term `a & b` is redundant: it repeats `a & b`%0Ahelp: remove the term; `y` stays the same\n"
+    );
+}
