@@ -3,6 +3,7 @@
 
 mod check;
 mod document;
+mod eval;
 mod files;
 mod fix;
 mod fmt;
@@ -101,6 +102,21 @@ enum Command {
         #[arg(long, value_enum, default_value_t = minimize::MinimizeFormat::Text)]
         format: minimize::MinimizeFormat,
     },
+    /// Print the value of every signal for one input vector (`--set a=1,b=0,...`).
+    ///
+    /// Values are `1`, `0`, or `free` where the signal's don't-cares leave it open. Exit
+    /// status: 0, 1 when some signal has no function, 2 when an input is missing, unknown or
+    /// set twice, or the file cannot be read.
+    Eval {
+        /// The file (`-` reads standard input).
+        file: PathBuf,
+        /// Input values, `NAME=0` or `NAME=1`, separated by commas (repeatable).
+        #[arg(long, value_name = "NAME=V,...", required = true)]
+        set: Vec<String>,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = eval::EvalFormat::Text)]
+        format: eval::EvalFormat,
+    },
     /// Print truth tables of signals (text mode adds Karnaugh maps for up to 6 inputs).
     ///
     /// Each signal's table is over the inputs it reads, the first one the most significant
@@ -171,6 +187,7 @@ fn main() -> ExitCode {
             review,
             diff,
         } => fix::run(&paths, review, diff),
+        Command::Eval { file, set, format } => eval::run(&file, &set, format),
         Command::Minimize {
             file,
             signals,

@@ -261,3 +261,51 @@ fn twenty_four_input_parity_is_too_large_and_says_what_is_known() {
         "{why}"
     );
 }
+
+#[test]
+fn eval_gives_every_signal_for_one_vector() {
+    // Worked by hand from the definitions: t = a & b = 1, y = t | !c = 1,
+    // z = a => b => c = 1 => (1 => 0) = 0.
+    let src = "input a, b, c\noutput y, z\ny = t | !c\nlet t = a & b\nz = a => b => c\n";
+    let out = run(&["eval", "-", "--set", "a=1,b=1", "--set", "c=0"], src);
+    assert_eq!(out.status.code(), Some(0));
+    assert_eq!(
+        String::from_utf8_lossy(&out.stdout),
+        "y = 1\nt = 1\nz = 0\n"
+    );
+    // A don't-care shows as free, and a reader that does not care as fixed.
+    let src =
+        "input a, b\noutput same, copy\nlet w = on(1) dc(2) over (a, b)\nsame = w ^ w\ncopy = w\n";
+    let (doc, out) = json(&["eval", "-", "--set", "a=1,b=0", "--format", "json"], src);
+    assert_eq!(out.status.code(), Some(0));
+    let values: Vec<(String, String)> = doc["signals"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|s| {
+            (
+                s["name"].as_str().unwrap().into(),
+                s["value"].as_str().unwrap().into(),
+            )
+        })
+        .collect();
+    assert_eq!(
+        values,
+        [
+            ("w".into(), "free".into()),
+            ("same".into(), "0".into()),
+            ("copy".into(), "free".into())
+        ]
+    );
+    // Every input must be set, once, to 0 or 1.
+    for bad in [
+        vec!["--set", "a=1"],
+        vec!["--set", "a=1,b=2"],
+        vec!["--set", "a=1,a=0,b=1"],
+        vec!["--set", "a=1,q=0"],
+    ] {
+        let mut args = vec!["eval", "-"];
+        args.extend(bad.iter());
+        assert_eq!(run(&args, src).status.code(), Some(2), "{bad:?}");
+    }
+}
