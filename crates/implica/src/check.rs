@@ -44,6 +44,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
     }
     summary.unreadable += problems.len();
     let mut json_diags: Vec<Value> = Vec::new();
+    let mut sarif_results: Vec<Value> = Vec::new();
     let mut configs = crate::project::Configs::default();
     for input in &inputs {
         let name = input.display();
@@ -70,6 +71,10 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
                 json_diags.extend(diags.iter().map(|d| to_json(&name, &text, &index, d)));
             }
             OutputFormat::Github => print_github(&name, &text, &diags),
+            OutputFormat::Sarif => {
+                let index = LineIndex::new(&text);
+                sarif_results.extend(diags.iter().map(|d| sarif_result(&name, &text, &index, d)));
+            }
         }
     }
     match format {
@@ -91,6 +96,12 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
             println!("{line}");
         }
         OutputFormat::Github => {}
+        OutputFormat::Sarif => {
+            println!(
+                "{}",
+                serde_json::to_string_pretty(&sarif_log(sarif_results)).unwrap_or_default()
+            );
+        }
         OutputFormat::Json => {
             let doc = json!({
                 "diagnostics": json_diags,
@@ -157,6 +168,137 @@ fn to_json(file: &str, text: &str, index: &LineIndex, d: &Diagnostic) -> Value {
         "range": range(text, index, d.span),
         "related": related,
         "fixes": fixes,
+    })
+}
+
+/// A file name as a relative URI reference: `/` separators, and the
+/// characters a URI does not allow percent-encoded.
+fn uri(name: &str) -> String {
+    let mut out = String::new();
+    for b in name.replace('\\', "/").bytes() {
+        if b.is_ascii_alphanumeric() || b"-._~/!$&'()*+,;=:@".contains(&b) {
+            out.push(b as char);
+        } else {
+            out.push_str(&format!("%{b:02X}"));
+        }
+    }
+    out
+}
+
+/// A SARIF region: 1-based lines and columns, end exclusive, columns in
+/// Unicode scalar values (`columnKind` is `unicodeCodePoints`).
+fn sarif_region(text: &str, index: &LineIndex, span: implica_syntax::Span) -> Value {
+    let (a, b) = (
+        index.line_col(text, span.start),
+        index.line_col(text, span.end),
+    );
+    json!({
+        "startLine": a.line + 1,
+        "startColumn": a.col + 1,
+        "endLine": b.line + 1,
+        "endColumn": b.col + 1,
+    })
+}
+
+fn sarif_level(s: Severity) -> &'static str {
+    match s {
+        Severity::Error => "error",
+        Severity::Warning => "warning",
+        Severity::Info | Severity::Hint => "note",
+    }
+}
+
+fn sarif_result(name: &str, text: &str, index: &LineIndex, d: &Diagnostic) -> Value {
+    let location = |span| {
+        json!({
+            "physicalLocation": {
+                "artifactLocation": { "uri": uri(name) },
+                "region": sarif_region(text, index, span),
+            }
+        })
+    };
+    let rule_index = implica_analysis::rules::ALL
+        .iter()
+        .position(|r| r.name == d.rule)
+        .unwrap_or(0);
+    let mut message = d.message.clone();
+    if let Some(h) = &d.help {
+        message.push_str(&format!(" Help: {h}"));
+    }
+    let related: Vec<Value> = d
+        .related
+        .iter()
+        .enumerate()
+        .map(|(i, r)| {
+            let mut l = location(r.span);
+            l["id"] = json!(i);
+            l["message"] = json!({ "text": r.message });
+            l
+        })
+        .collect();
+    let fixes: Vec<Value> = d
+        .fixes
+        .iter()
+        .map(|f| {
+            let kind = match f.applicability {
+                Applicability::Safe => "safe",
+                Applicability::NeedsReview => "to review",
+            };
+            json!({
+                "description": { "text": format!("{} ({kind})", f.title) },
+                "artifactChanges": [{
+                    "artifactLocation": { "uri": uri(name) },
+                    "replacements": f.edits.iter().map(|e| json!({
+                        "deletedRegion": sarif_region(text, index, e.span),
+                        "insertedContent": { "text": e.new_text },
+                    })).collect::<Vec<_>>(),
+                }],
+            })
+        })
+        .collect();
+    json!({
+        "ruleId": d.rule,
+        "ruleIndex": rule_index,
+        "level": sarif_level(d.severity),
+        "message": { "text": message },
+        "locations": [location(d.span)],
+        "relatedLocations": related,
+        "fixes": fixes,
+    })
+}
+
+/// The whole SARIF log: one run of `implica`, its rules, the results.
+fn sarif_log(results: Vec<Value>) -> Value {
+    let rules: Vec<Value> = implica_analysis::rules::ALL
+        .iter()
+        .map(|r| {
+            let off = implica_analysis::rules::OFF_BY_DEFAULT.contains(&r.name);
+            json!({
+                "id": r.name,
+                "shortDescription": { "text": r.summary },
+                "fullDescription": { "text": r.summary },
+                "help": { "text": r.documentation(), "markdown": r.documentation() },
+                "defaultConfiguration": {
+                    "enabled": !off,
+                    "level": sarif_level(r.default_severity),
+                },
+            })
+        })
+        .collect();
+    json!({
+        "$schema": "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json",
+        "version": "2.1.0",
+        "runs": [{
+            "tool": {
+                "driver": {
+                    "name": "implica",
+                    "version": env!("CARGO_PKG_VERSION"),
+                    "rules": rules,
+                }
+            },
+            "columnKind": "unicodeCodePoints",
+            "results": results,
+        }]
     })
 }
 

@@ -168,12 +168,23 @@ pub enum OutputFormat {
     Human,
     /// One JSON document (schema in docs/json-output.md).
     Json,
+    /// One SARIF 2.1.0 log (the OASIS standard): the rules, each result with its
+    /// locations, related locations and fixes.
+    Sarif,
     /// One GitHub Actions workflow command per diagnostic (`::error file=...::...`), so
     /// that findings appear as annotations on the changed lines.
     Github,
 }
 
 fn main() -> ExitCode {
+    // Output piped into `head` and the like: stop quietly when the reader
+    // goes away, as command-line tools do, instead of failing to print.
+    #[cfg(unix)]
+    // SAFETY: restoring the default action of a signal, before any thread
+    // is started, has no other effect.
+    unsafe {
+        libc::signal(libc::SIGPIPE, libc::SIG_DFL);
+    }
     let cli = Cli::parse();
     match cli.command {
         Command::Check {
