@@ -370,11 +370,13 @@ fn implica_rule_names() -> Vec<&'static str> {
         "undefined-output",
         "undeclared-assignment",
         "unused-input",
+        "vacuous-input",
         "unused-signal",
         "cyclic-definition",
         "redundant-term",
         "redundant-literal",
         "non-minimal",
+        "constant-signal",
         "table-missing-rows",
         "table-conflict",
         "table-width",
@@ -383,6 +385,8 @@ fn implica_rule_names() -> Vec<&'static str> {
         "empty-constraint",
         "unused-constraint",
         "static-hazard",
+        "equivalent-signals",
+        "shared-terms",
     ]
 }
 
