@@ -319,3 +319,17 @@ fn non_minimal_says_what_is_proven_past_the_budget() {
     assert!(d.message.contains("not proven minimal"), "{}", d.message);
     assert!(d.message.contains("terms found, at least"), "{}", d.message);
 }
+
+#[test]
+fn fixes_never_write_a_keyword_as_a_name() {
+    // Found by the `analyze` fuzz target: `on` kept as a name by the
+    // parser's recovery must not be written into an `output` statement.
+    let a = analyze("input a\noutput y\ny = a\non = a\n");
+    assert!(a.internal_errors.is_empty(), "{:?}", a.internal_errors);
+    let d = a
+        .diagnostics
+        .iter()
+        .find(|d| d.rule == "undeclared-assignment")
+        .expect("still reported");
+    assert!(d.fixes.is_empty());
+}

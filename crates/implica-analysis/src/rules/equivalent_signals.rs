@@ -228,7 +228,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                         .is_some_and(|span| !cx.src[span.start..span.end].contains('#'))
             })
             .collect();
-        if !rewritable.is_empty() {
+        if !rewritable.is_empty() && super::is_plain_name(name) {
             let edits = rewritable
                 .iter()
                 .filter_map(|&s| rhs_span(cx, s))

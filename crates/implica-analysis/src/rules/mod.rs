@@ -89,6 +89,13 @@ pub const ALL: &[Rule] = &[
 /// Rules that run only when the configuration turns them on.
 pub const OFF_BY_DEFAULT: &[&str] = &["static-hazard"];
 
+/// Whether `name` reads back as one plain name: not a keyword kept by the
+/// parser's recovery, so that a fix may write it into new places.
+pub(crate) fn is_plain_name(name: &str) -> bool {
+    let t = implica_syntax::lexer::lex(name);
+    t.len() == 1 && t[0].kind == implica_syntax::lexer::TokenKind::Ident
+}
+
 /// The definitions that count (each signal's first) whose right-hand side
 /// is an expression, with their ids.
 pub(crate) fn expression_definitions<'a, 'f>(

@@ -21,6 +21,8 @@
 //! not known): add `let` (no signal changes), or declare the name as an
 //! output (it changes what the file exports).
 //!
+//! No fix is offered while the file has syntax errors.
+//!
 //! Default severity: error.
 
 use super::{Ctx, Rule};
@@ -59,6 +61,12 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
             "write `let {}` for an intermediate signal, or add `{}` to an `output` statement",
             sig.name, sig.name
         ));
+        if !super::is_plain_name(&sig.name) || cx.has_syntax_errors {
+            // A keyword used as a name, or text that does not parse: where
+            // the new name would go is not known for sure.
+            out.push(d);
+            continue;
+        }
         let item = &m.file.items[def.item];
         let let_at = match def.body {
             Body::Column { .. } => {

@@ -74,7 +74,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                     || !o.definitions.is_empty()
                     || !o.declarations.is_empty()
             })
-            .filter(|o| edit_distance(&o.name, &sig.name) <= 2)
+            .filter(|o| edit_distance(&o.name, &sig.name) <= 2 && super::is_plain_name(&o.name))
             .min_by_key(|o| (edit_distance(&o.name, &sig.name), o.name.clone()));
         match near {
             Some(o) => {
