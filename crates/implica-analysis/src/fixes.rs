@@ -126,20 +126,9 @@ fn verify_local(
         return None;
     }
     // Reading only names the old expression read, it cannot make a loop.
-    fn names(e: &implica_syntax::ast::Expr, out: &mut Vec<String>) {
-        use implica_syntax::ast::ExprKind;
-        match &e.kind {
-            ExprKind::Name(n) => out.push(n.text.to_string()),
-            ExprKind::Not { operand, .. } => names(operand, out),
-            ExprKind::Paren(inner) => names(inner, out),
-            ExprKind::Chain { operands, .. } => operands.iter().for_each(|o| names(o, out)),
-            ExprKind::Const(_) | ExprKind::Error => {}
-        }
-    }
-    let (mut was, mut now) = (Vec::new(), Vec::new());
-    names(old_expr, &mut was);
-    names(new_expr, &mut now);
-    if !now.iter().all(|n| was.contains(n)) {
+    let was = crate::model::name_uses(old_expr);
+    let now = crate::model::name_uses(new_expr);
+    if !now.iter().all(|n| was.iter().any(|w| w.text == n.text)) {
         return None;
     }
     let mut effort = Effort::new(DEFAULT_WORK_PER_DEFINITION);

@@ -276,17 +276,8 @@ impl<'f> Model<'f> {
     }
 
     fn read_expr(&mut self, e: &Expr, reads: &mut Vec<SignalId>) {
-        // Depth is bounded by the parser's nesting limit; chains are flat.
-        match &e.kind {
-            ExprKind::Name(n) => self.read_name(n, reads),
-            ExprKind::Not { operand, .. } => self.read_expr(operand, reads),
-            ExprKind::Paren(inner) => self.read_expr(inner, reads),
-            ExprKind::Chain { operands, .. } => {
-                for o in operands {
-                    self.read_expr(o, reads);
-                }
-            }
-            ExprKind::Const(_) | ExprKind::Error => {}
+        for n in name_uses(e) {
+            self.read_name(n, reads);
         }
     }
 
@@ -377,4 +368,20 @@ impl<'f> Model<'f> {
             .or_else(|| sig.references.first().map(|r| r.start))
             .unwrap_or(usize::MAX)
     }
+}
+
+/// Every name an expression reads, in source order (repeats included).
+pub fn name_uses(e: &Expr) -> Vec<&Name> {
+    let mut out = Vec::new();
+    let mut stack = vec![e];
+    while let Some(e) = stack.pop() {
+        match &e.kind {
+            ExprKind::Name(n) => out.push(n),
+            ExprKind::Not { operand, .. } => stack.push(operand),
+            ExprKind::Paren(inner) => stack.push(inner),
+            ExprKind::Chain { operands, .. } => stack.extend(operands.iter().rev()),
+            ExprKind::Const(_) | ExprKind::Error => {}
+        }
+    }
+    out
 }

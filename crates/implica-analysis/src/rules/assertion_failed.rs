@@ -43,7 +43,7 @@ use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions, Known};
 use crate::model::{Model, SignalId, SignalKind};
 use crate::{Diagnostic, Severity};
 use implica_logic::{BddRef, Effort, Interrupted};
-use implica_syntax::ast::{Expr, ExprKind};
+use implica_syntax::ast::Expr;
 
 pub const RULE: Rule = Rule {
     name: "assertion-failed",
@@ -129,20 +129,11 @@ fn check_one(
 /// The signals an expression names, each once, in order of appearance.
 pub(crate) fn names_in(m: &Model, e: &Expr) -> Vec<SignalId> {
     let mut out = Vec::new();
-    let mut stack = vec![e];
-    while let Some(e) = stack.pop() {
-        match &e.kind {
-            ExprKind::Name(n) => {
-                if let Some(s) = m.signal(&n.text)
-                    && !out.contains(&s)
-                {
-                    out.push(s);
-                }
-            }
-            ExprKind::Not { operand, .. } => stack.push(operand),
-            ExprKind::Paren(inner) => stack.push(inner),
-            ExprKind::Chain { operands, .. } => stack.extend(operands.iter().rev()),
-            ExprKind::Const(_) | ExprKind::Error => {}
+    for n in crate::model::name_uses(e) {
+        if let Some(s) = m.signal(&n.text)
+            && !out.contains(&s)
+        {
+            out.push(s);
         }
     }
     out

@@ -55,7 +55,11 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     }
     let mut reads_of_statements = Vec::new();
     for st in m.never.iter().chain(&m.asserts) {
-        names_in(st.body, &mut reads_of_statements);
+        reads_of_statements.extend(
+            crate::model::name_uses(st.body)
+                .into_iter()
+                .map(|n| n.text.to_string()),
+        );
     }
     for st in &m.expects {
         for n in st.body.inputs.iter().chain(&st.body.outputs) {
@@ -125,20 +129,5 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
             });
         }
         out.push(d);
-    }
-}
-
-fn names_in(e: &implica_syntax::ast::Expr, out: &mut Vec<String>) {
-    use implica_syntax::ast::ExprKind;
-    match &e.kind {
-        ExprKind::Name(n) => out.push(n.text.to_string()),
-        ExprKind::Not { operand, .. } => names_in(operand, out),
-        ExprKind::Paren(inner) => names_in(inner, out),
-        ExprKind::Chain { operands, .. } => {
-            for o in operands {
-                names_in(o, out);
-            }
-        }
-        ExprKind::Const(_) | ExprKind::Error => {}
     }
 }

@@ -67,7 +67,7 @@ use crate::model::{Body, Model, SignalId, SignalKind};
 use crate::{Diagnostic, Related, Severity};
 use implica_logic::{BddRef, Effort, Interrupted};
 use implica_syntax::Span;
-use implica_syntax::ast::{Expr, ExprKind};
+use implica_syntax::ast::Expr;
 use std::collections::HashMap;
 
 pub const RULE: Rule = Rule {
@@ -196,17 +196,11 @@ impl Deps {
 
 /// The names in an expression, in source order.
 fn names<'e>(e: &'e Expr, out: &mut Vec<(&'e str, Span)>) {
-    match &e.kind {
-        ExprKind::Name(n) => out.push((n.text.as_str(), n.span)),
-        ExprKind::Not { operand, .. } => names(operand, out),
-        ExprKind::Paren(inner) => names(inner, out),
-        ExprKind::Chain { operands, .. } => {
-            for o in operands {
-                names(o, out);
-            }
-        }
-        ExprKind::Const(_) | ExprKind::Error => {}
-    }
+    out.extend(
+        crate::model::name_uses(e)
+            .into_iter()
+            .map(|n| (n.text.as_str(), n.span)),
+    );
 }
 
 /// Every name the definition of `s` reads, with its span.
