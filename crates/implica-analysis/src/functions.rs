@@ -128,47 +128,10 @@ impl Functions {
             }
         };
         for &s in &model.order {
-            let mut e = effort();
-            let value = match f.signal_value(model, s, &mut e) {
-                Ok(k) => Ok(k),
-                Err(Fail::Unknown(u)) => Err(u),
-                Err(Fail::Stop(Interrupted::OutOfBudget)) => Err(Unknown::TooLarge),
-                Err(Fail::Stop(Interrupted::Cancelled)) => return Err(Interrupted::Cancelled),
-            };
-            f.values[s] = value;
-            f.reads[s] = match model.signals[s].input_index {
-                Some(i) => vec![i],
-                None => {
-                    let mut r: Vec<usize> = model
-                        .definition_of(s)
-                        .map(|d| d.reads.iter().flat_map(|&x| f.reads[x].clone()).collect())
-                        .unwrap_or_default();
-                    r.sort_unstable();
-                    r.dedup();
-                    r
-                }
-            };
+            f.values[s] = f.computed(model, s, &mut effort())?;
+            f.reads[s] = f.input_reads(model, s);
         }
-        for st in &model.never {
-            let mut e = effort();
-            let sure = (|| -> Result<BddRef, Fail> {
-                let v = f.expr(model, st.body, &mut e)?;
-                Ok(f.bdd.forall_from(v, inputs, &mut e)?)
-            })();
-            match sure {
-                Ok(v) => {
-                    let mut e = effort();
-                    match f.bdd.or(f.impossible, v, &mut e) {
-                        Ok(i) => f.impossible = i,
-                        Err(Interrupted::Cancelled) => return Err(Interrupted::Cancelled),
-                        Err(Interrupted::OutOfBudget) => {}
-                    }
-                }
-                Err(Fail::Stop(Interrupted::Cancelled)) => return Err(Interrupted::Cancelled),
-                // A constraint that cannot be computed frees nothing.
-                Err(_) => {}
-            }
-        }
+        f.impossible = f.impossible_of(model, &effort)?;
         Ok(f)
     }
 
@@ -232,53 +195,89 @@ impl Functions {
                 self.reads[s] = r;
                 continue;
             }
-            let mut e = Effort::new(work_per_definition);
-            let value = match self.signal_value(nm, s, &mut e) {
-                Ok(k) => Ok(k),
-                Err(Fail::Unknown(u)) => Err(u),
-                Err(Fail::Stop(Interrupted::OutOfBudget)) => Err(Unknown::TooLarge),
-                Err(Fail::Stop(Interrupted::Cancelled)) => {
-                    result = Err(Interrupted::Cancelled);
+            match self.computed(nm, s, &mut Effort::new(work_per_definition)) {
+                Ok(v) => self.values[s] = v,
+                Err(i) => {
+                    result = Err(i);
                     break;
                 }
-            };
-            self.values[s] = value;
-            self.reads[s] = match nm.signals[s].input_index {
-                Some(i) => vec![i],
-                None => {
-                    let mut r: Vec<usize> = nm
-                        .definition_of(s)
-                        .map(|d| {
-                            d.reads
-                                .iter()
-                                .flat_map(|&x| self.reads[x].clone())
-                                .collect()
-                        })
-                        .unwrap_or_default();
-                    r.sort_unstable();
-                    r.dedup();
-                    r
-                }
-            };
+            }
+            self.reads[s] = self.input_reads(nm, s);
         }
         self.impossible = BddRef::FALSE;
         if result.is_ok() {
-            for st in &nm.never {
-                let mut e = Effort::new(work_per_definition);
-                let sure = (|| -> Result<BddRef, Fail> {
-                    let v = self.expr(nm, st.body, &mut e)?;
-                    let v = self.bdd.forall_from(v, self.inputs, &mut e)?;
-                    Ok(self.bdd.or(self.impossible, v, &mut e)?)
-                })();
-                if let Ok(i) = sure {
-                    self.impossible = i;
-                }
+            match self.impossible_of(nm, &|| Effort::new(work_per_definition)) {
+                Ok(i) => self.impossible = i,
+                Err(i) => result = Err(i),
             }
         }
         let values = std::mem::replace(&mut self.values, saved_values);
         self.reads = saved_reads;
         let impossible = std::mem::replace(&mut self.impossible, saved_impossible);
         Some(result.map(|()| Edited { values, impossible }))
+    }
+
+    /// Signal `s`'s value, with running out of budget as
+    /// [`Unknown::TooLarge`]; only cancellation is an error.
+    fn computed(
+        &mut self,
+        model: &Model,
+        s: SignalId,
+        e: &mut Effort,
+    ) -> Result<Value, Interrupted> {
+        match self.signal_value(model, s, e) {
+            Ok(k) => Ok(Ok(k)),
+            Err(Fail::Unknown(u)) => Ok(Err(u)),
+            Err(Fail::Stop(Interrupted::OutOfBudget)) => Ok(Err(Unknown::TooLarge)),
+            Err(Fail::Stop(Interrupted::Cancelled)) => Err(Interrupted::Cancelled),
+        }
+    }
+
+    /// The primary inputs `s` reads, from those of the signals it reads
+    /// (which come before it in the evaluation order).
+    fn input_reads(&self, model: &Model, s: SignalId) -> Vec<usize> {
+        if let Some(i) = model.signals[s].input_index {
+            return vec![i];
+        }
+        let mut r: Vec<usize> = model
+            .definition_of(s)
+            .map(|d| {
+                d.reads
+                    .iter()
+                    .flat_map(|&x| self.reads[x].clone())
+                    .collect()
+            })
+            .unwrap_or_default();
+        r.sort_unstable();
+        r.dedup();
+        r
+    }
+
+    /// Where some `never` statement holds for every choice. A statement
+    /// that cannot be computed within its budget frees nothing.
+    fn impossible_of<'c>(
+        &mut self,
+        model: &Model,
+        effort: &dyn Fn() -> Effort<'c>,
+    ) -> Result<BddRef, Interrupted> {
+        let mut impossible = BddRef::FALSE;
+        for st in &model.never {
+            let mut e = effort();
+            let sure = (|| -> Result<BddRef, Fail> {
+                let v = self.expr(model, st.body, &mut e)?;
+                Ok(self.bdd.forall_from(v, self.inputs, &mut e)?)
+            })();
+            match sure {
+                Ok(v) => match self.bdd.or(impossible, v, &mut effort()) {
+                    Ok(i) => impossible = i,
+                    Err(Interrupted::Cancelled) => return Err(Interrupted::Cancelled),
+                    Err(Interrupted::OutOfBudget) => {}
+                },
+                Err(Fail::Stop(Interrupted::Cancelled)) => return Err(Interrupted::Cancelled),
+                Err(_) => {}
+            }
+        }
+        Ok(impossible)
     }
 
     /// The function of an expression over the document's signals (over
