@@ -8,7 +8,7 @@
 //! input under the don't-cares by cube containment before it is returned;
 //! when that check cannot finish, the input comes back unchanged.
 
-use crate::urp::{mask, split_variable};
+use crate::urp::{mask, polarities, split_variable};
 use crate::{Cover, Cube, Effort, Interrupted};
 
 /// The outcome of [`minimize_heuristic`].
@@ -355,9 +355,7 @@ fn supercube_of_complement(
         }
         _ => {}
     }
-    let (pos, neg) = cubes.iter().fold((0u64, 0u64), |(p, n), c| {
-        (p | (!c.zero & m), n | (!c.one & m))
-    });
+    let (pos, neg) = polarities(cubes, m);
     let candidates = if pos & neg != 0 { pos & neg } else { pos | neg };
     let i = split_variable(cubes, vars, candidates);
     let mut result: Option<Cube> = None;

@@ -241,7 +241,7 @@ impl Cover {
 }
 
 /// Variables with a positive literal somewhere, and with a negative one.
-fn polarities(cubes: &[Cube], m: u64) -> (u64, u64) {
+pub(crate) fn polarities(cubes: &[Cube], m: u64) -> (u64, u64) {
     cubes.iter().fold((0, 0), |(pos, neg), c| {
         (pos | (!c.zero & m), neg | (!c.one & m))
     })
