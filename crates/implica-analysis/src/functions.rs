@@ -32,6 +32,29 @@ pub enum Unknown {
     TooLarge,
 }
 
+impl Unknown {
+    /// Why a signal has no function, in words, as the end of "it has no
+    /// function: ...".
+    pub fn describe(self, model: &Model) -> String {
+        match self {
+            Unknown::Undefined(x) => format!(
+                "it reads `{}`, which is neither an input nor defined",
+                model.signals[x].name
+            ),
+            Unknown::Cyclic => {
+                "it depends on itself through a cycle of definitions (see `implica check`)"
+                    .to_string()
+            }
+            Unknown::Malformed => {
+                "its definition, or one it reads, has errors (see `implica check`)".to_string()
+            }
+            Unknown::TooLarge => {
+                "its function takes more work to compute than the budget allows".to_string()
+            }
+        }
+    }
+}
+
 /// A signal's function.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Known {
@@ -332,6 +355,44 @@ impl Functions {
         Ok(Ok(Local { inputs, on, dc }))
     }
 
+    /// The function a term list or a table column states over its own
+    /// header, before the header signals' functions are composed in: in
+    /// the result, variable `j` (and `inputs[j] == j`) is the `j`-th name of
+    /// the `over (...)` list or of the table's input columns. Rows listed
+    /// as don't-cares, in conflict or missing are its don't-cares. An
+    /// expression body has no header: [`Unknown::Malformed`].
+    pub fn listed_over_header(
+        &mut self,
+        body: Body,
+        effort: &mut Effort,
+    ) -> Result<Result<Local, Unknown>, Interrupted> {
+        let k = match body {
+            Body::Terms(t) => t.over.len(),
+            Body::Column { table, .. } => table.inputs.len(),
+            Body::Expr(_) => return Ok(Err(Unknown::Malformed)),
+        };
+        if k > self.bdd.vars() {
+            return Ok(Err(Unknown::TooLarge));
+        }
+        let computed = (|| -> Result<Local, Fail> {
+            let over = (0..k)
+                .map(|j| self.bdd.var(j))
+                .collect::<Result<Vec<_>, _>>()?;
+            let (on, dc) = self.listed(body, &over, effort)?;
+            Ok(Local {
+                inputs: (0..k).collect(),
+                on,
+                dc,
+            })
+        })();
+        match computed {
+            Ok(l) => Ok(Ok(l)),
+            Err(Fail::Unknown(u)) => Ok(Err(u)),
+            Err(Fail::Stop(Interrupted::OutOfBudget)) => Ok(Err(Unknown::TooLarge)),
+            Err(Fail::Stop(Interrupted::Cancelled)) => Err(Interrupted::Cancelled),
+        }
+    }
+
     /// The value of an expression (of a `never` or an `assert`, say) over
     /// the primary inputs and the choice variables, the way definitions
     /// read signals: each name stands for its signal's `full` function.
@@ -362,17 +423,52 @@ impl Functions {
         };
         let (on, free) = match def.body {
             Body::Expr(x) => (self.expr(model, x, e)?, BddRef::FALSE),
+            body => {
+                let over = match body {
+                    Body::Terms(t) => t.over.iter(),
+                    Body::Column { table, .. } => table.inputs.iter(),
+                    Body::Expr(_) => unreachable!("handled above"),
+                };
+                let over = self.names(model, over.map(|n| n.text.as_str()))?;
+                self.listed(body, &over, e)?
+            }
+        };
+        let full = if free == BddRef::FALSE {
+            on
+        } else {
+            if self.next_choice >= self.bdd.vars() {
+                return Err(Unknown::TooLarge.into());
+            }
+            let choice = self.bdd.var(self.next_choice)?;
+            self.next_choice += 1;
+            let chosen = self.bdd.and(free, choice, e)?;
+            self.bdd.or(on, chosen, e)?
+        };
+        let lower = self.bdd.forall_from(full, self.inputs, e)?;
+        let upper = self.bdd.exists_from(full, self.inputs, e)?;
+        Ok(Known { full, lower, upper })
+    }
+
+    /// The value of a term list or a table column as a function of its
+    /// header signals, whose values are `over`: where it is 1, and where it
+    /// is free (rows listed as don't-cares, in conflict, or missing).
+    fn listed(
+        &mut self,
+        body: Body,
+        over: &[BddRef],
+        e: &mut Effort,
+    ) -> Result<(BddRef, BddRef), Fail> {
+        Ok(match body {
             Body::Terms(t) => {
-                let over = self.names(model, t.over.iter().map(|n| n.text.as_str()))?;
                 let list = |kind| t.parts.iter().find(|p| p.kind == kind);
                 let dc = match list(TermKind::Dc) {
-                    Some(p) => self.rows(&over, &p.entries, e)?,
+                    Some(p) => self.rows(over, &p.entries, e)?,
                     None => BddRef::FALSE,
                 };
                 let listed_on = match (list(TermKind::On), list(TermKind::Off)) {
-                    (Some(p), None) => self.rows(&over, &p.entries, e)?,
+                    (Some(p), None) => self.rows(over, &p.entries, e)?,
                     (None, Some(p)) => {
-                        let off = self.rows(&over, &p.entries, e)?;
+                        let off = self.rows(over, &p.entries, e)?;
                         self.bdd.not(off, e)?
                     }
                     _ => return Err(Unknown::Malformed.into()),
@@ -382,7 +478,7 @@ impl Functions {
                 (self.bdd.and(listed_on, not_dc, e)?, dc)
             }
             Body::Column { table, column } => {
-                let ins = self.names(model, table.inputs.iter().map(|n| n.text.as_str()))?;
+                let ins = over;
                 let width = table.outputs.len();
                 let (mut ones, mut zeros, mut listed) =
                     (BddRef::FALSE, BddRef::FALSE, BddRef::FALSE);
@@ -394,7 +490,7 @@ impl Functions {
                                 return Err(Unknown::Malformed.into());
                             }
                             let mut pattern = BddRef::TRUE;
-                            for (cell, &v) in inputs.iter().zip(&ins) {
+                            for (cell, &v) in inputs.iter().zip(ins) {
                                 let lit = match cell.value {
                                     CellValue::One => v,
                                     CellValue::Zero => self.bdd.not(v, e)?,
@@ -433,21 +529,8 @@ impl Functions {
                 let fixed = self.bdd.or(on, off, e)?;
                 (on, self.bdd.not(fixed, e)?)
             }
-        };
-        let full = if free == BddRef::FALSE {
-            on
-        } else {
-            if self.next_choice >= self.bdd.vars() {
-                return Err(Unknown::TooLarge.into());
-            }
-            let choice = self.bdd.var(self.next_choice)?;
-            self.next_choice += 1;
-            let chosen = self.bdd.and(free, choice, e)?;
-            self.bdd.or(on, chosen, e)?
-        };
-        let lower = self.bdd.forall_from(full, self.inputs, e)?;
-        let upper = self.bdd.exists_from(full, self.inputs, e)?;
-        Ok(Known { full, lower, upper })
+            Body::Expr(_) => return Err(Unknown::Malformed.into()),
+        })
     }
 
     fn name(&self, model: &Model, name: &str) -> Result<BddRef, Fail> {

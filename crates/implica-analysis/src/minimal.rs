@@ -79,6 +79,20 @@ pub fn minimal_forms(
         Ok(l) => l,
         Err(u) => return Ok(Err(u)),
     };
+    forms_of(f, local, sop, pos, budget, effort).map(Ok)
+}
+
+/// The requested minimal forms of a function given by its on-set and
+/// don't-cares (as [`Functions::local`] or
+/// [`Functions::listed_over_header`] return them).
+pub fn forms_of(
+    f: &mut Functions,
+    local: Local,
+    sop: bool,
+    pos: bool,
+    budget: &Budget,
+    effort: &mut Effort,
+) -> Result<SignalForms, Interrupted> {
     let mut forms = SignalForms {
         local,
         sop: None,
@@ -90,7 +104,7 @@ pub fn minimal_forms(
     if pos {
         forms.pos = Some(form(f, &forms.local, true, budget, effort)?);
     }
-    Ok(Ok(forms))
+    Ok(forms)
 }
 
 fn form(

@@ -2,7 +2,7 @@
 //! (`minimize`, `table`), and choosing the signals they report on.
 
 use crate::files;
-use implica_analysis::functions::{Functions, Unknown};
+use implica_analysis::functions::Functions;
 use implica_analysis::model::{Model, SignalId, SignalKind};
 use implica_syntax::ast::SourceFile;
 use std::path::Path;
@@ -99,25 +99,6 @@ pub fn functions(model: &Model) -> Functions {
         None,
     )
     .unwrap_or_else(|_| unreachable!("nothing cancels a command-line run"))
-}
-
-/// Why a signal has no function, in words.
-pub fn explain(model: &Model, u: Unknown) -> String {
-    match u {
-        Unknown::Undefined(x) => format!(
-            "it reads `{}`, which is neither an input nor defined",
-            model.signals[x].name
-        ),
-        Unknown::Cyclic => {
-            "it depends on itself through a cycle of definitions (see `implica check`)".to_string()
-        }
-        Unknown::Malformed => {
-            "its definition, or one it reads, has errors (see `implica check`)".to_string()
-        }
-        Unknown::TooLarge => {
-            "its function takes more work to compute than the budget allows".to_string()
-        }
-    }
 }
 
 /// The names of a signal's inputs.

@@ -85,7 +85,7 @@ pub fn run(path: &Path, set: &[String], format: EvalFormat) -> ExitCode {
                 },
                 Err(u) => {
                     unknown = true;
-                    format!("unknown ({})", document::explain(model, u))
+                    format!("unknown ({})", u.describe(model))
                 }
             };
             rows.push((sig.name.to_string(), value));

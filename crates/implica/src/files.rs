@@ -110,6 +110,55 @@ pub fn write_atomic(path: &Path, expected: &[u8], contents: &[u8]) -> io::Result
     Ok(())
 }
 
+/// Writes `contents` to `path`, which may or may not exist, atomically: a
+/// temporary file in the same directory, flushed to disk, renamed over the
+/// path. An existing file keeps its permissions; a new one gets the usual
+/// ones (read and write as the umask allows).
+pub fn write_new(path: &Path, contents: &[u8]) -> io::Result<()> {
+    let dir = match path.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d,
+        _ => Path::new("."),
+    };
+    let perms = match fs::metadata(path) {
+        Ok(m) => Some(m.permissions()),
+        Err(e) if e.kind() == io::ErrorKind::NotFound => None,
+        Err(e) => return Err(e),
+    };
+    let mut tmp = tempfile::Builder::new()
+        .prefix(".implica-")
+        .suffix(".tmp")
+        .tempfile_in(dir)?;
+    tmp.write_all(contents)?;
+    tmp.as_file().sync_all()?;
+    match perms {
+        Some(p) => fs::set_permissions(tmp.path(), p)?,
+        None => set_default_permissions(tmp.path())?,
+    }
+    tmp.persist(path).map_err(|e| e.error)?;
+    Ok(())
+}
+
+#[cfg(unix)]
+fn set_default_permissions(path: &Path) -> io::Result<()> {
+    use std::os::unix::fs::PermissionsExt;
+    // SAFETY: umask only swaps the process's file-creation mask; the
+    // command is single-threaded, so nothing creates a file in between.
+    let mask = unsafe {
+        let m = libc::umask(0o022);
+        libc::umask(m);
+        m
+    };
+    // `mode_t` is u32 on Linux but u16 on some other systems.
+    #[allow(clippy::useless_conversion)]
+    let mask = u32::from(mask);
+    fs::set_permissions(path, fs::Permissions::from_mode(0o666 & !mask))
+}
+
+#[cfg(not(unix))]
+fn set_default_permissions(_: &Path) -> io::Result<()> {
+    Ok(())
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -1,9 +1,10 @@
-//! The `implica` command: check, format, minimize and tabulate (and in later
-//! releases export) combinational logic written in Implica.
+//! The `implica` command: check, format, fix, minimize, tabulate and export
+//! combinational logic written in Implica.
 
 mod check;
 mod document;
 mod eval;
+mod export;
 mod files;
 mod fix;
 mod fmt;
@@ -135,6 +136,32 @@ enum Command {
         #[arg(long, value_name = "N", default_value_t = 1024)]
         max_rows: usize,
     },
+    /// Write a Verilog module or a VHDL entity computing the file's outputs.
+    ///
+    /// The ports are the file's inputs and outputs, in declaration order; each output gets
+    /// one continuous assignment of its minimal two-level form over the inputs it reads
+    /// (with --as-written, each definition as written, intermediate signals as internal
+    /// wires). Before anything is written, the logic is proven to give every signal the
+    /// file's value wherever the file fixes it. Names that are reserved or illegal in the
+    /// target language are changed, and the header lists them. Only files without errors
+    /// are exported. Exit status: 0 when written, 1 when the file has errors or a signal has
+    /// no function, 2 when a file cannot be read or written or --name cannot be used.
+    Export {
+        /// The file (`-` reads standard input).
+        file: PathBuf,
+        /// The language to write.
+        #[arg(long, value_enum)]
+        to: export::Target,
+        /// Keep each definition as written instead of minimizing the outputs.
+        #[arg(long)]
+        as_written: bool,
+        /// The module (or entity) name; by default, the file name without `.imp`.
+        #[arg(long, value_name = "NAME")]
+        name: Option<String>,
+        /// Write to this file (atomically) instead of standard output.
+        #[arg(long, short, value_name = "FILE")]
+        output: Option<PathBuf>,
+    },
     /// List every rule: name, default severity (or `off`), one line on what it finds.
     Rules,
     /// Print a rule's full documentation: what it finds, why it matters, an example, the fix.
@@ -211,6 +238,13 @@ fn main() -> ExitCode {
             format,
             max_rows,
         } => table::run(&file, &signals, format, max_rows),
+        Command::Export {
+            file,
+            to,
+            as_written,
+            name,
+            output,
+        } => export::run(&file, to, as_written, name.as_deref(), output.as_deref()),
         Command::Rules => {
             let rules = implica_analysis::rules::ALL;
             let width = rules.iter().map(|r| r.name.len()).max().unwrap_or(0);

@@ -56,7 +56,7 @@ fn report(
             Ok(Ok(f)) => f,
             Ok(Err(u)) => {
                 failed = true;
-                let why = document::explain(model, u);
+                let why = u.describe(model);
                 text.push_str(&format!("{name}: no function: {why}\n\n"));
                 out_json.push(json!({"name": name, "inputs": [], "error": why}));
                 continue;

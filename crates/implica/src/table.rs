@@ -55,7 +55,7 @@ fn report(
             Ok(Ok(l)) => l,
             Ok(Err(u)) => {
                 failed = true;
-                tabled.push(Err((name, document::explain(model, u))));
+                tabled.push(Err((name, u.describe(model))));
                 continue;
             }
             Err(_) => {
