@@ -388,7 +388,8 @@ fn needed_by(model: &Model, outputs: &[SignalId]) -> Vec<bool> {
 }
 
 /// The comments written on a definition: on the lines above it, and at the
-/// end of its line.
+/// end of its line; suppression comments (`# implica: ...`) speak to
+/// Implica, not to the reader of the module, and stay behind.
 fn comments_of(model: &Model, item: usize) -> Vec<String> {
     let trivia = &model.file.items[item].trivia;
     let strip = |t: &str| {
@@ -400,6 +401,7 @@ fn comments_of(model: &Model, item: usize) -> Vec<String> {
         .iter()
         .map(|(_, c)| strip(&c.text))
         .chain(trivia.trailing().map(|c| strip(&c.text)))
+        .filter(|c| !c.trim_start().starts_with("implica:"))
         .collect()
 }
 
@@ -482,7 +484,7 @@ fn pick_form(
                 return Ok((
                     e,
                     format!(
-                        "{kind} ({size}; {certificate}) with {} added against static-1 hazards",
+                        "{kind}: {size}; {certificate}; {} added against static-1 hazards",
                         plural(added, "consensus term")
                     ),
                 ));
