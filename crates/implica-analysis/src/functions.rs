@@ -100,6 +100,9 @@ pub struct Functions {
     /// Where some `never` statement holds, for every choice.
     pub impossible: BddRef,
     next_choice: usize,
+    /// While [`Functions::edited`] computes a version without some unread
+    /// inputs: the variable of each of its inputs.
+    input_vars: Option<Vec<usize>>,
 }
 
 enum Fail {
@@ -142,6 +145,7 @@ impl Functions {
             reads: vec![Vec::new(); model.signals.len()],
             impossible: BddRef::FALSE,
             next_choice: inputs,
+            input_vars: None,
         };
         let effort = || {
             let e = Effort::new(work_per_definition);
@@ -162,9 +166,11 @@ impl Functions {
     /// this manager so that they compare with this version's by reference.
     /// A signal whose definition reads the same text and whose inputs have
     /// the same values keeps its function without recomputing it; only
-    /// what an edit touches is computed again. Returns `None` when the
-    /// primary inputs differ (a new manager is needed then). The values of
-    /// this version are left as they were.
+    /// what an edit touches is computed again. The edited version may drop
+    /// inputs that nothing reads (its inputs keep this version's variables);
+    /// returns `None` when the primary inputs differ otherwise (a new
+    /// manager is needed then). The values of this version are left as they
+    /// were.
     pub fn edited(
         &mut self,
         old: (&Model, &str),
@@ -179,9 +185,32 @@ impl Functions {
                 .map(|&s| m.signals[s].name.to_string())
                 .collect()
         };
-        if names(om) != names(nm) {
+        let (old_names, new_names) = (names(om), names(nm));
+        // The old variable of each new input: the same names in the same
+        // order, less inputs the old version never reads.
+        let mut map = Vec::with_capacity(new_names.len());
+        let mut j = 0;
+        for n in &new_names {
+            while j < old_names.len() && &old_names[j] != n {
+                if !om.signals[om.inputs[j]].references.is_empty() {
+                    return None;
+                }
+                j += 1;
+            }
+            if j == old_names.len() {
+                return None;
+            }
+            map.push(j);
+            j += 1;
+        }
+        if om.inputs[j..]
+            .iter()
+            .any(|&x| !om.signals[x].references.is_empty())
+        {
             return None;
         }
+        let identity = map.iter().enumerate().all(|(i, &v)| i == v) && map.len() == old_names.len();
+        self.input_vars = (!identity).then_some(map);
         let saved_values = std::mem::replace(
             &mut self.values,
             vec![Err(Unknown::Cyclic); nm.signals.len()],
@@ -209,7 +238,8 @@ impl Functions {
                             .is_some_and(|or| saved_values[or] == self.values[r])
                     })
                 });
-                let same_kind = om.signals[o].input_index == nm.signals[s].input_index;
+                let same_kind = om.signals[o].input_index
+                    == nm.signals[s].input_index.map(|i| self.input_var(i));
                 (same_text && same_reads && same_kind)
                     .then(|| (saved_values[o], saved_reads[o].clone()))
             });
@@ -234,6 +264,7 @@ impl Functions {
                 Err(i) => result = Err(i),
             }
         }
+        self.input_vars = None;
         let values = std::mem::replace(&mut self.values, saved_values);
         self.reads = saved_reads;
         let impossible = std::mem::replace(&mut self.impossible, saved_impossible);
@@ -411,7 +442,7 @@ impl Functions {
 
     fn signal_value(&mut self, model: &Model, s: SignalId, e: &mut Effort) -> Result<Known, Fail> {
         if let Some(i) = model.signals[s].input_index {
-            let v = self.bdd.var(i)?;
+            let v = self.bdd.var(self.input_var(i))?;
             return Ok(Known {
                 full: v,
                 lower: v,
@@ -531,6 +562,12 @@ impl Functions {
             }
             Body::Expr(_) => return Err(Unknown::Malformed.into()),
         })
+    }
+
+    /// The BDD variable of primary input `i` (its own index, except while
+    /// an edited version with fewer inputs is computed).
+    fn input_var(&self, i: usize) -> usize {
+        self.input_vars.as_ref().map_or(i, |m| m[i])
     }
 
     fn name(&self, model: &Model, name: &str) -> Result<BddRef, Fail> {

@@ -220,3 +220,66 @@ fn cancellation_stops_the_computation() {
     assert!(Functions::compute(&big_model, u64::MAX, Some(&stop)).is_err());
     assert!(Functions::compute(&big_model, u64::MAX, None).is_ok());
 }
+
+/// Removing inputs that nothing reads is proven in the original manager
+/// (`Functions::edited` maps the remaining inputs to their old variables),
+/// with the same verdict as the proof from scratch (`fixes::verify`); a
+/// removal that changes what is read, or an input that is read, is not.
+#[test]
+fn edits_that_drop_unread_inputs_are_proven_in_place() {
+    use implica_analysis::{Applicability, Edit, Fix, fixes};
+    use implica_syntax::Span;
+    let src = "input a, spare, b, c, last\noutput y, z\ny = a & b | c\nlet w = b ^ c\nz = w & a\n";
+    let fix = |from: &str, to: &str| {
+        let start = src.find(from).unwrap();
+        Fix {
+            title: "edit".into(),
+            applicability: Applicability::Safe,
+            edits: vec![Edit {
+                span: Span::new(start, start + from.len()),
+                new_text: to.into(),
+            }],
+        }
+    };
+    let (file, _) = implica_syntax::parse(src);
+    let model = Model::build(&file);
+    let mut f = Functions::compute(&model, 1_000_000, None).unwrap();
+    // The unread `spare` and `last` go: proven both ways, same text.
+    let drop_two = fix("input a, spare, b, c, last", "input a, b, c");
+    let in_place = fixes::verify_in(&model, &mut f, src, &drop_two).unwrap();
+    assert_eq!(in_place, fixes::verify(src, &drop_two).unwrap());
+    assert!(in_place.starts_with("input a, b, c\n"));
+    // `b` is read: removing it leaves `y` and `w` reading an undefined name.
+    let drop_read = fix("input a, spare, b, c, last", "input a, spare, c, last");
+    assert!(fixes::verify_in(&model, &mut f, src, &drop_read).is_err());
+    assert!(fixes::verify(src, &drop_read).is_err());
+    // Inputs reordered: each signal keeps its function, which both prove.
+    let reorder = fix("input a, spare, b, c, last", "input spare, a, b, c, last");
+    assert_eq!(
+        fixes::verify_in(&model, &mut f, src, &reorder).is_ok(),
+        fixes::verify(src, &reorder).is_ok()
+    );
+    // Dropping `spare` while changing `y` is caught in place.
+    let both = Fix {
+        edits: vec![
+            drop_two.edits[0].clone(),
+            Edit {
+                span: Span::new(src.find("a & b").unwrap(), src.find("a & b").unwrap() + 5),
+                new_text: "a | b".into(),
+            },
+        ],
+        ..drop_two.clone()
+    };
+    let err = fixes::verify_in(&model, &mut f, src, &both).unwrap_err();
+    assert!(err.contains("`y` would change"), "{err}");
+    // The original's functions are untouched by all this.
+    let y = model.signal("y").unwrap();
+    let again = Functions::compute(&model, 1_000_000, None).unwrap();
+    assert_eq!(
+        f.bdd
+            .to_truth_table(f.value(y).unwrap().lower, &[0, 1, 2, 3, 4]),
+        again
+            .bdd
+            .to_truth_table(again.value(y).unwrap().lower, &[0, 1, 2, 3, 4])
+    );
+}
