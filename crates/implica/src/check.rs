@@ -46,19 +46,28 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
     let mut json_diags: Vec<Value> = Vec::new();
     let mut sarif_results: Vec<Value> = Vec::new();
     let mut configs = crate::project::Configs::default();
-    for input in &inputs {
-        let name = input.display();
-        let bytes = match files::read(input) {
-            Ok(b) => b,
-            Err(e) => {
+    // Configurations are found on this thread (each directory once); the
+    // files are read and analysed on all cores, and reported in order.
+    let jobs: Vec<_> = inputs
+        .iter()
+        .map(|input| (input, configs.for_input(input)))
+        .collect();
+    analyse_all(&jobs, |k, result| {
+        let name = jobs[k].0.display();
+        let (text, analysis) = match result {
+            Ok(Ok(r)) => r,
+            Ok(Err(e)) => {
                 eprintln!("implica: {name}: cannot read: {e}");
                 summary.unreadable += 1;
-                continue;
+                return;
+            }
+            Err(_) => {
+                eprintln!("implica: {name}: internal error: the analysis stopped");
+                summary.unreadable += 1;
+                return;
             }
         };
         summary.files += 1;
-        let config = configs.for_input(input);
-        let (text, analysis) = implica_analysis::check_bytes_with(&bytes, &config);
         for e in &analysis.internal_errors {
             eprintln!("implica: {name}: internal error (please report it): {e}");
         }
@@ -76,7 +85,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
                 sarif_results.extend(diags.iter().map(|d| sarif_result(&name, &text, &index, d)));
             }
         }
-    }
+    });
     match format {
         OutputFormat::Human => {
             let plural = |n: usize, w: &str| format!("{n} {w}{}", if n == 1 { "" } else { "s" });
@@ -124,6 +133,63 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
     } else {
         ExitCode::SUCCESS
     }
+}
+
+type Analysed = std::io::Result<(String, implica_analysis::Analysis)>;
+
+/// Reads and analyses every input on a pool of threads (one per core) and
+/// hands the results to `report` on this thread, in input order, each as
+/// soon as it and those before it are done. A result that never comes (a
+/// worker that panicked) is an `Err`.
+fn analyse_all(
+    jobs: &[(
+        &files::Input,
+        std::sync::Arc<implica_analysis::config::Config>,
+    )],
+    mut report: impl FnMut(usize, Result<Analysed, std::sync::mpsc::RecvError>),
+) {
+    use std::sync::atomic::{AtomicUsize, Ordering};
+    use std::sync::{Mutex, mpsc};
+    let work = |k: usize| -> Analysed {
+        let (input, config) = &jobs[k];
+        let bytes = files::read(input)?;
+        Ok(implica_analysis::check_bytes_with(&bytes, config))
+    };
+    let threads = std::thread::available_parallelism()
+        .map_or(1, usize::from)
+        .min(jobs.len());
+    if threads <= 1 {
+        for k in 0..jobs.len() {
+            report(k, Ok(work(k)));
+        }
+        return;
+    }
+    let (senders, receivers): (Vec<_>, Vec<_>) = jobs.iter().map(|_| mpsc::channel()).unzip();
+    let senders: Vec<Mutex<Option<mpsc::Sender<Analysed>>>> =
+        senders.into_iter().map(|s| Mutex::new(Some(s))).collect();
+    let next = AtomicUsize::new(0);
+    std::thread::scope(|scope| {
+        for _ in 0..threads {
+            scope.spawn(|| {
+                loop {
+                    let k = next.fetch_add(1, Ordering::Relaxed);
+                    if k >= jobs.len() {
+                        break;
+                    }
+                    // Taken before the work, so that a panic drops it and
+                    // the report of this input does not wait forever.
+                    let tx = senders[k].lock().ok().and_then(|mut s| s.take());
+                    let result = work(k);
+                    if let Some(tx) = tx {
+                        let _ = tx.send(result);
+                    }
+                }
+            });
+        }
+        for (k, rx) in receivers.iter().enumerate() {
+            report(k, rx.recv());
+        }
+    });
 }
 
 fn position(text: &str, index: &LineIndex, offset: usize) -> Value {

@@ -6,7 +6,7 @@ use implica_analysis::config::Config;
 use implica_syntax::LineIndex;
 use std::collections::HashMap;
 use std::path::{Path, PathBuf};
-use std::rc::Rc;
+use std::sync::Arc as Rc;
 
 #[derive(Default)]
 pub struct Configs {

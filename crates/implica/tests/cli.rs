@@ -484,3 +484,39 @@ fn github_annotations() {
          the term `a & b` is redundant: it repeats `a & b`%0Ahelp: remove the term; `y` stays the same\n"
     );
 }
+
+/// Files are analysed in parallel but reported in the order they are found
+/// (sorted within a directory), with an unreadable one in its place.
+#[test]
+fn many_files_are_reported_in_order() {
+    let dir = tempfile::tempdir().unwrap();
+    for k in 0..12 {
+        // Each file's one error names it: `undefined-signal` on `q<k>`.
+        let src = format!("input a\noutput y\ny = a & q{k:02}\n");
+        std::fs::write(dir.path().join(format!("f{k:02}.imp")), src).unwrap();
+    }
+    let d = dir.path().to_str().unwrap();
+    let missing = format!("{d}/missing.imp");
+    let out = implica(&["check", "--format", "json", d, &missing, d]);
+    assert_eq!(out.status.code(), Some(2));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let files: Vec<String> = v["diagnostics"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|x| x["rule"] == "undefined-signal")
+        .map(|x| {
+            x["file"]
+                .as_str()
+                .unwrap()
+                .rsplit('/')
+                .next()
+                .unwrap()
+                .to_string()
+        })
+        .collect();
+    let once: Vec<String> = (0..12).map(|k| format!("f{k:02}.imp")).collect();
+    assert_eq!(files, [once.clone(), once].concat());
+    assert_eq!(v["summary"]["files"], 24);
+    assert!(String::from_utf8_lossy(&out.stderr).contains("missing.imp"));
+}
