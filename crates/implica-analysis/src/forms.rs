@@ -107,8 +107,10 @@ fn mark_reachable(
     mark_reachable(f, vals, depth + 1, row << 1 | 1, hi, out, effort)
 }
 
-/// The expression as a [`BoolExpr`] over its names; `None` on error nodes.
-pub(crate) fn to_bool_expr(e: &Expr, names: &mut Vec<SmolStr>) -> Option<BoolExpr> {
+/// The expression as a [`BoolExpr`] over its names (variable `i` is
+/// `names[i]`, appended in order of first use), operator by operator as
+/// written; `None` on error nodes.
+pub fn to_bool_expr(e: &Expr, names: &mut Vec<SmolStr>) -> Option<BoolExpr> {
     Some(match &e.kind {
         ExprKind::Name(n) => {
             let i = match names.iter().position(|x| *x == n.text) {

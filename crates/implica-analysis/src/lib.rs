@@ -20,6 +20,7 @@ pub mod model;
 pub mod rules;
 pub mod suppress;
 
+pub use forms::to_bool_expr;
 use implica_syntax::{Span, SyntaxError};
 
 /// How serious a diagnostic is.

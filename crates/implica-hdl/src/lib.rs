@@ -23,7 +23,7 @@ use implica_analysis::minimal::{Form, NoForm, forms_of};
 use implica_analysis::model::{Body, Model, SignalId, SignalKind};
 use implica_logic::{BddRef, BoolExpr, Effort, Interrupted, MAX_VARS, hazard_free_cover};
 use implica_syntax::LineIndex;
-use implica_syntax::ast::{BinOp, Expr, ExprKind};
+use implica_syntax::ast::Expr;
 use std::fmt;
 
 /// The target language.
@@ -521,47 +521,13 @@ fn map_vars(e: &BoolExpr, f: &dyn Fn(usize) -> usize) -> BoolExpr {
 /// written; `None` where it has an error node or names a signal with no
 /// net.
 fn from_syntax(model: &Model, x: &Expr, net_of: &[Option<usize>]) -> Option<BoolExpr> {
-    Some(match &x.kind {
-        ExprKind::Name(n) => BoolExpr::Var(net_of[model.signal(&n.text)?]?),
-        ExprKind::Const(b) => BoolExpr::Const(*b),
-        ExprKind::Not { operand, .. } => BoolExpr::negate(from_syntax(model, operand, net_of)?),
-        ExprKind::Paren(inner) => from_syntax(model, inner, net_of)?,
-        ExprKind::Error => return None,
-        ExprKind::Chain { operands, ops } => {
-            let vals = operands
-                .iter()
-                .map(|o| from_syntax(model, o, net_of))
-                .collect::<Option<Vec<_>>>()?;
-            if vals.len() != ops.len() + 1 {
-                return None;
-            }
-            if ops.iter().all(|o| o.op == BinOp::Implies) {
-                // `a => b => c` is `a => (b => c)`.
-                let mut it = vals.into_iter().rev();
-                let mut acc = it.next()?;
-                for v in it {
-                    acc = BoolExpr::Or(vec![BoolExpr::negate(v), acc]);
-                }
-                return Some(acc);
-            }
-            let mut it = vals.into_iter();
-            let mut acc = it.next()?;
-            for (op, v) in ops.iter().zip(it) {
-                let pair = vec![acc, v];
-                acc = match op.op {
-                    BinOp::And => BoolExpr::And(pair),
-                    BinOp::Or => BoolExpr::Or(pair),
-                    BinOp::Xor | BinOp::Ne => BoolExpr::Xor(pair),
-                    BinOp::Nand => BoolExpr::negate(BoolExpr::And(pair)),
-                    BinOp::Nor => BoolExpr::negate(BoolExpr::Or(pair)),
-                    BinOp::Xnor | BinOp::Eq => BoolExpr::negate(BoolExpr::Xor(pair)),
-                    // A chain mixes `=>` only with itself.
-                    BinOp::Implies => return None,
-                };
-            }
-            text::flatten(acc)
-        }
-    })
+    let mut names = Vec::new();
+    let e = implica_analysis::to_bool_expr(x, &mut names)?;
+    let nets = names
+        .iter()
+        .map(|n| net_of[model.signal(n)?])
+        .collect::<Option<Vec<usize>>>()?;
+    Some(text::flatten(map_vars(&e, &|i| nets[i])))
 }
 
 /// Proves that the assignments give each signal they drive its function,

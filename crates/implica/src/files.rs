@@ -89,40 +89,34 @@ pub fn read(input: &Input) -> io::Result<Vec<u8>> {
 /// is renamed over the original, whose permissions it keeps. If the file no
 /// longer holds `expected` (someone changed it meanwhile), nothing is written.
 pub fn write_atomic(path: &Path, expected: &[u8], contents: &[u8]) -> io::Result<()> {
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d,
-        _ => Path::new("."),
-    };
     let perms = fs::metadata(path)?.permissions();
-    let mut tmp = tempfile::Builder::new()
-        .prefix(".implica-")
-        .suffix(".tmp")
-        .tempfile_in(dir)?;
-    tmp.write_all(contents)?;
-    tmp.as_file().sync_all()?;
-    fs::set_permissions(tmp.path(), perms)?;
-    if fs::read(path)? != expected {
-        return Err(io::Error::other(
-            "the file changed on disk while implica was running; it was left as it is",
-        ));
-    }
-    tmp.persist(path).map_err(|e| e.error)?;
-    Ok(())
+    write_via_temp(path, contents, Some(perms), Some(expected))
 }
 
-/// Writes `contents` to `path`, which may or may not exist, atomically: a
-/// temporary file in the same directory, flushed to disk, renamed over the
-/// path. An existing file keeps its permissions; a new one gets the usual
-/// ones (read and write as the umask allows).
+/// Writes `contents` to `path`, which may or may not exist, atomically as
+/// [`write_atomic`] does. An existing file keeps its permissions; a new one
+/// gets the usual ones (read and write as the umask allows).
 pub fn write_new(path: &Path, contents: &[u8]) -> io::Result<()> {
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d,
-        _ => Path::new("."),
-    };
     let perms = match fs::metadata(path) {
         Ok(m) => Some(m.permissions()),
         Err(e) if e.kind() == io::ErrorKind::NotFound => None,
         Err(e) => return Err(e),
+    };
+    write_via_temp(path, contents, perms, None)
+}
+
+/// A temporary file beside `path` with `contents` and `perms` (or the
+/// usual permissions), flushed and renamed over `path`; when `expected` is
+/// given, only if `path` still holds it.
+fn write_via_temp(
+    path: &Path,
+    contents: &[u8],
+    perms: Option<fs::Permissions>,
+    expected: Option<&[u8]>,
+) -> io::Result<()> {
+    let dir = match path.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d,
+        _ => Path::new("."),
     };
     let mut tmp = tempfile::Builder::new()
         .prefix(".implica-")
@@ -133,6 +127,13 @@ pub fn write_new(path: &Path, contents: &[u8]) -> io::Result<()> {
     match perms {
         Some(p) => fs::set_permissions(tmp.path(), p)?,
         None => set_default_permissions(tmp.path())?,
+    }
+    if let Some(expected) = expected
+        && fs::read(path)? != expected
+    {
+        return Err(io::Error::other(
+            "the file changed on disk while implica was running; it was left as it is",
+        ));
     }
     tmp.persist(path).map_err(|e| e.error)?;
     Ok(())
