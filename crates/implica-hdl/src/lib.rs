@@ -236,7 +236,6 @@ pub fn export(
                 .map(|d| d.signal)
                 .filter(|&s| net_of[s].is_some_and(|n| n >= model.inputs.len()))
                 .collect();
-            t.dedup();
             let mut seen = vec![false; model.signals.len()];
             t.retain(|&s| !std::mem::replace(&mut seen[s], true));
             t
@@ -321,17 +320,15 @@ pub fn export(
         });
     }
 
-    let netlist_signals = signals.clone();
     prove(
         model,
         functions,
-        &netlist_signals,
+        &signals,
         &assigns,
         options.work_per_signal,
     )?;
 
     let header = header_lines(
-        model,
         functions,
         options,
         &module,
@@ -652,7 +649,6 @@ fn eval(
 
 /// The header comment's lines.
 fn header_lines(
-    model: &Model,
     functions: &Functions,
     options: &Options,
     module: &str,
@@ -720,7 +716,6 @@ fn header_lines(
             h.push(format!("  {} is {} ({})", r.from, r.to, r.why));
         }
     }
-    let _ = model;
     h
 }
 
