@@ -722,6 +722,7 @@ fn header_lines(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use implica_testkit::Rng;
 
     fn with_doc<R>(src: &str, f: impl FnOnce(&Model, &mut Functions) -> R) -> R {
         let (file, errors) = implica_syntax::parse(src);
@@ -772,20 +773,6 @@ mod tests {
         // A `never` combination is free too.
         let src = "input a, b\noutput y\nnever a & !b\ny = a & b\n";
         assert_eq!(proves(src, Var(0)), Ok(()));
-    }
-
-    /// A small deterministic generator (xorshift), so that failures repeat.
-    struct Rng(u64);
-    impl Rng {
-        fn next(&mut self) -> u64 {
-            self.0 ^= self.0 << 13;
-            self.0 ^= self.0 >> 7;
-            self.0 ^= self.0 << 17;
-            self.0
-        }
-        fn below(&mut self, n: u64) -> u64 {
-            self.next() % n
-        }
     }
 
     fn random_expr(r: &mut Rng, names: &[String], depth: u32) -> String {

@@ -4,6 +4,7 @@
 
 use divan::Bencher;
 use implica_logic::{Budget, TruthTable, minimize_multi, minimize_sop};
+use implica_testkit::Rng;
 
 #[global_allocator]
 static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
@@ -81,17 +82,6 @@ fn kiosk_digits() -> Vec<(TruthTable, TruthTable)> {
 fn multi_output_kiosk_display(bencher: Bencher) {
     let outputs = kiosk_digits();
     bencher.bench_local(|| minimize_multi(&outputs, &Budget::default()));
-}
-
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
 }
 
 /// Random functions: each minterm on with probability 3/8, a don't-care with

@@ -3,8 +3,12 @@
 //! covers of 24 to 40 inputs. Run with `cargo bench -p implica-logic --bench
 //! wide`; figures go in docs/benchmarks.md.
 
+#[path = "../tests/common/mod.rs"]
+mod common;
+use common::random_cover;
 use divan::Bencher;
-use implica_logic::{Bdd, BoolExpr, Cover, Cube, Effort, TruthTable, minimize_heuristic};
+use implica_logic::{Bdd, BoolExpr, Cover, Effort, TruthTable, minimize_heuristic};
+use implica_testkit::Rng;
 
 #[global_allocator]
 static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
@@ -32,33 +36,6 @@ fn main() {
 const SEED: u64 = 0x0123_4567_89AB_CDEF;
 const BUDGET: u64 = 200_000_000;
 const HEURISTIC_CASES: &[(usize, usize)] = &[(24, 50), (24, 400), (32, 200), (40, 50), (40, 400)];
-
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
-}
-
-/// `cubes` random cubes, each the product of `literals` random literals
-/// (fewer when a variable repeats).
-fn random_cover(rng: &mut Rng, vars: usize, cubes: usize, literals: usize) -> Cover {
-    let cubes = (0..cubes)
-        .map(|_| {
-            let mut c = Cube::universe(vars);
-            for _ in 0..literals {
-                let i = (rng.next() % vars as u64) as usize;
-                c = c.and(&Cube::literal(vars, i, rng.next().is_multiple_of(2)));
-            }
-            c
-        })
-        .collect();
-    Cover { vars, cubes }
-}
 
 /// Two equal random 20-input functions: the comparison reads all 16,384
 /// words, the worst case for an equivalence check.

@@ -2,27 +2,11 @@
 //! by minterm for small functions, and against the cube-based operations
 //! (an independent method) for functions of 40 to 64 inputs.
 
-use implica_logic::{Bdd, BddRef, BoolExpr, Cover, Cube, Effort, Interrupted, TruthTable};
+mod common;
+use common::{expr, inputs, random_cover};
+use implica_logic::{Bdd, BddRef, BoolExpr, Cover, Effort, Interrupted, TruthTable};
+use implica_testkit::Rng;
 use proptest::prelude::*;
-
-fn expr(vars: usize) -> impl Strategy<Value = BoolExpr> {
-    let leaf = prop_oneof![
-        (0..vars).prop_map(BoolExpr::Var),
-        any::<bool>().prop_map(BoolExpr::Const)
-    ];
-    leaf.prop_recursive(5, 48, 4, |inner| {
-        prop_oneof![
-            inner.clone().prop_map(BoolExpr::negate),
-            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::And),
-            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::Or),
-            proptest::collection::vec(inner, 0..4).prop_map(BoolExpr::Xor),
-        ]
-    })
-}
-
-fn inputs(vars: usize, m: usize) -> Vec<bool> {
-    (0..vars).map(|i| (m >> (vars - 1 - i)) & 1 == 1).collect()
-}
 
 fn index_of(point: &[bool]) -> usize {
     point.iter().fold(0, |acc, &b| (acc << 1) | usize::from(b))
@@ -162,31 +146,6 @@ fn node_limit_and_cancellation() {
             .unwrap_err(),
         Interrupted::OutOfBudget
     );
-}
-
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
-}
-
-fn random_cover(rng: &mut Rng, vars: usize, cubes: usize, literals: usize) -> Cover {
-    let cubes = (0..cubes)
-        .map(|_| {
-            let mut c = Cube::universe(vars);
-            for _ in 0..literals {
-                let i = (rng.next() % vars as u64) as usize;
-                c = c.and(&Cube::literal(vars, i, rng.next().is_multiple_of(2)));
-            }
-            c
-        })
-        .collect();
-    Cover { vars, cubes }
 }
 
 #[test]

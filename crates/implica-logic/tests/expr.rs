@@ -3,30 +3,13 @@
 //! inputs: the minimized sum of products and product of sums, and the
 //! hazard-free cover, all compute the original function.
 
+mod common;
+use common::{expr, inputs};
 use implica_logic::{
     BoolExpr, Budget, GateKind, GateNetwork, TruthTable, hazard_free_cover, minimize_pos,
     minimize_sop, static1_hazards,
 };
 use proptest::prelude::*;
-
-fn expr(vars: usize) -> impl Strategy<Value = BoolExpr> {
-    let leaf = prop_oneof![
-        (0..vars).prop_map(BoolExpr::Var),
-        any::<bool>().prop_map(BoolExpr::Const)
-    ];
-    leaf.prop_recursive(5, 48, 4, |inner| {
-        prop_oneof![
-            inner.clone().prop_map(BoolExpr::negate),
-            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::And),
-            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::Or),
-            proptest::collection::vec(inner, 0..4).prop_map(BoolExpr::Xor),
-        ]
-    })
-}
-
-fn inputs(vars: usize, m: usize) -> Vec<bool> {
-    (0..vars).map(|i| (m >> (vars - 1 - i)) & 1 == 1).collect()
-}
 
 proptest! {
     #[test]

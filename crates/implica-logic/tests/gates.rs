@@ -4,26 +4,13 @@
 //! two-level forms map to two levels of gates. Gate counts of small circuits
 //! are checked by hand against common practice.
 
+mod common;
+use common::{expr, inputs};
 use implica_logic::{
     BoolExpr, Budget, Cost, Cover, Cube, Gate, GateError, GateKind, GateNetwork, NetworkCost,
     Signal, TruthTable, minimize_pos, minimize_sop,
 };
 use proptest::prelude::*;
-
-fn expr(vars: usize) -> impl Strategy<Value = BoolExpr> {
-    let leaf = prop_oneof![
-        (0..vars).prop_map(BoolExpr::Var),
-        any::<bool>().prop_map(BoolExpr::Const)
-    ];
-    leaf.prop_recursive(5, 48, 4, |inner| {
-        prop_oneof![
-            inner.clone().prop_map(BoolExpr::negate),
-            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::And),
-            proptest::collection::vec(inner.clone(), 0..4).prop_map(BoolExpr::Or),
-            proptest::collection::vec(inner, 0..4).prop_map(BoolExpr::Xor),
-        ]
-    })
-}
 
 /// A cover of up to six cubes over `vars` inputs: per variable, 0 for the
 /// negated literal, 1 for the positive one, 2 for none.
@@ -42,10 +29,6 @@ fn cover(vars: usize) -> impl Strategy<Value = Cover> {
             .collect();
         Cover { vars, cubes }
     })
-}
-
-fn inputs(vars: usize, m: usize) -> Vec<bool> {
-    (0..vars).map(|i| (m >> (vars - 1 - i)) & 1 == 1).collect()
 }
 
 use BoolExpr::{And, Const, Or, Var, Xor};

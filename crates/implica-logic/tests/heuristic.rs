@@ -5,38 +5,12 @@
 //! diagrams, by a diagram where one fits, and by simulation on random
 //! vectors, which shares no code with either).
 
+mod common;
+use common::random_cover;
 use implica_logic::{
     Bdd, Budget, Cover, Cube, Effort, Interrupted, TruthTable, minimize_heuristic, minimize_sop,
 };
-
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
-}
-
-fn random_cube(rng: &mut Rng, vars: usize, literals: usize) -> Cube {
-    let mut c = Cube::universe(vars);
-    for _ in 0..literals {
-        let i = (rng.next() % vars as u64) as usize;
-        c = c.and(&Cube::literal(vars, i, rng.next().is_multiple_of(2)));
-    }
-    c
-}
-
-fn random_cover(rng: &mut Rng, vars: usize, cubes: usize, literals: usize) -> Cover {
-    Cover {
-        vars,
-        cubes: (0..cubes)
-            .map(|_| random_cube(rng, vars, literals))
-            .collect(),
-    }
-}
+use implica_testkit::Rng;
 
 fn cost(c: &Cover) -> (usize, usize) {
     (c.len(), c.literals())

@@ -2,17 +2,7 @@
 //! independent search over every cube.
 
 use implica_logic::{Budget, MAX_OUTPUTS, TruthTable, minimize_multi};
-
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
-}
+use implica_testkit::Rng;
 
 fn random_output(rng: &mut Rng, vars: usize, dc_share: u64) -> (TruthTable, TruthTable) {
     let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));

@@ -20,6 +20,7 @@
 //! skips with a loud message, except when `CI` is set, where it fails.
 
 use implica_logic::{Budget, Cube, Minimized, TruthTable, minimize_pos, minimize_sop};
+use implica_testkit::Rng;
 use serde_json::{Value, json};
 use std::io::{BufRead, BufReader, Write};
 use std::path::{Path, PathBuf};
@@ -106,21 +107,6 @@ impl Case {
             .map(|m| required[m] || self.dc[m])
             .collect();
         (required, care)
-    }
-}
-
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
-
-    fn range(&mut self, lo: u64, hi: u64) -> u64 {
-        lo + self.next() % (hi - lo + 1)
     }
 }
 

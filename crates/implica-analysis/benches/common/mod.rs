@@ -1,16 +1,7 @@
 //! The generated specification of the analysis benchmark, shared with the
 //! `corpus` example (which writes many of them for `implica check`).
 
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 ^= self.0 << 13;
-        self.0 ^= self.0 >> 7;
-        self.0 ^= self.0 << 17;
-        self.0
-    }
-}
+use implica_testkit::Rng;
 
 /// Five lines per signal: a comment, a definition over two lines (a sum of
 /// 3 to 5 products over 10 of the 40 inputs), an assertion line for every
