@@ -255,30 +255,11 @@ impl GateNetwork {
                 inputs: self.inputs,
             });
         }
-        // Within a word, input `i` alternates with period 2^(shift+1) when
-        // its bit `shift` of the minterm index is below 6.
-        const PATTERN: [u64; 6] = [
-            0xAAAA_AAAA_AAAA_AAAA,
-            0xCCCC_CCCC_CCCC_CCCC,
-            0xF0F0_F0F0_F0F0_F0F0,
-            0xFF00_FF00_FF00_FF00,
-            0xFFFF_0000_FFFF_0000,
-            0xFFFF_FFFF_0000_0000,
-        ];
         let rows = 1usize << vars;
         let mut t = TruthTable::zero(vars);
         let mut values = Vec::with_capacity(self.gates.len());
         for base in (0..rows).step_by(64) {
-            let word = |i: usize| {
-                let shift = vars - 1 - i;
-                if shift < 6 {
-                    PATTERN[shift]
-                } else if (base >> shift) & 1 == 1 {
-                    u64::MAX
-                } else {
-                    0
-                }
-            };
+            let word = |i: usize| crate::truth_table::var_word(vars, i, base / 64);
             let out = self.run(word, &mut values);
             for k in 0..64.min(rows - base) {
                 if (out >> k) & 1 == 1 {

@@ -32,6 +32,30 @@ impl std::fmt::Debug for TruthTable {
     }
 }
 
+/// Word `w` of variable `i` (0 = most significant) over `vars` inputs:
+/// bit `k` is bit `vars - 1 - i` of the row number `64 * w + k`. Bits past
+/// the last row are not masked.
+pub(crate) fn var_word(vars: usize, i: usize, w: usize) -> u64 {
+    let shift = vars - 1 - i;
+    // Within a word, bit k is set when bit `shift` of k is: a fixed
+    // pattern for shifts below 6, whole words above.
+    const PATTERNS: [u64; 6] = [
+        0xAAAA_AAAA_AAAA_AAAA,
+        0xCCCC_CCCC_CCCC_CCCC,
+        0xF0F0_F0F0_F0F0_F0F0,
+        0xFF00_FF00_FF00_FF00,
+        0xFFFF_0000_FFFF_0000,
+        0xFFFF_FFFF_0000_0000,
+    ];
+    if shift < 6 {
+        PATTERNS[shift]
+    } else if (w >> (shift - 6)) & 1 == 1 {
+        u64::MAX
+    } else {
+        0
+    }
+}
+
 impl TruthTable {
     fn words_for(vars: usize) -> usize {
         assert!(
@@ -68,25 +92,8 @@ impl TruthTable {
     pub fn var(vars: usize, i: usize) -> TruthTable {
         assert!(i < vars, "variable {i} of {vars}");
         let mut t = TruthTable::zero(vars);
-        let shift = vars - 1 - i;
-        // Within a word, bit m is set when bit `shift` of m is: a fixed
-        // pattern for shifts below 6, whole words above.
-        const PATTERNS: [u64; 6] = [
-            0xAAAA_AAAA_AAAA_AAAA,
-            0xCCCC_CCCC_CCCC_CCCC,
-            0xF0F0_F0F0_F0F0_F0F0,
-            0xFF00_FF00_FF00_FF00,
-            0xFFFF_0000_FFFF_0000,
-            0xFFFF_FFFF_0000_0000,
-        ];
         for (w, word) in t.words.iter_mut().enumerate() {
-            *word = if shift < 6 {
-                PATTERNS[shift]
-            } else if (w >> (shift - 6)) & 1 == 1 {
-                u64::MAX
-            } else {
-                0
-            };
+            *word = var_word(vars, i, w);
         }
         let last = t.words.len() - 1;
         t.words[last] &= t.tail_mask();
