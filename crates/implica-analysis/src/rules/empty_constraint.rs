@@ -110,14 +110,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                  the statement"
                     .to_string(),
             );
-            d.fixes.push(Fix {
-                title: "remove the `never` statement".to_string(),
-                applicability: Applicability::Safe,
-                edits: vec![Edit {
-                    span: statement_line(cx.src, st.span),
-                    new_text: String::new(),
-                }],
-            });
+            d.fixes.push(remove_never(cx.src, st.span));
             out.push(d);
             continue;
         }
@@ -186,4 +179,17 @@ fn everything(span: implica_syntax::Span, message: String, related: Vec<Related>
     );
     d.related = related;
     d
+}
+
+/// The fix that deletes a `never` statement with its line (a comment after
+/// it stays).
+pub(crate) fn remove_never(src: &str, statement: implica_syntax::Span) -> Fix {
+    Fix {
+        title: "remove the `never` statement".to_string(),
+        applicability: Applicability::Safe,
+        edits: vec![Edit {
+            span: statement_line(src, statement),
+            new_text: String::new(),
+        }],
+    }
 }

@@ -45,11 +45,11 @@
 //! Default severity: warning.
 
 use super::assertion_failed::names_in;
-use super::empty_constraint::{excluded_sets, quoted};
-use super::{Ctx, Rule, statement_line};
+use super::empty_constraint::{excluded_sets, quoted, remove_never};
+use super::{Ctx, Rule};
 use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions};
 use crate::model::SignalKind;
-use crate::{Applicability, Diagnostic, Edit, Fix, Related, Severity};
+use crate::{Diagnostic, Related, Severity};
 use implica_logic::{BddRef, Effort, Interrupted};
 
 pub const RULE: Rule = Rule {
@@ -109,14 +109,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
                 message: "excludes these combinations too".to_string(),
             })
             .collect();
-        d.fixes.push(Fix {
-            title: "remove the `never` statement".to_string(),
-            applicability: Applicability::Safe,
-            edits: vec![Edit {
-                span: statement_line(cx.src, st.span),
-                new_text: String::new(),
-            }],
-        });
+        d.fixes.push(remove_never(cx.src, st.span));
         out.push(d);
     }
     // The input sets through which signals and checks see the constraints.
