@@ -1,35 +1,12 @@
 //! The `implica` binary, run as a user or a CI job would: exit codes,
 //! output formats, and file handling.
 
+mod common;
+use common::{implica, implica_stdin, root};
 use serde_json::Value;
 use std::fs;
-use std::io::Write;
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output, Stdio};
-
-fn implica(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_implica"))
-        .args(args)
-        .env_remove("NO_COLOR")
-        .output()
-        .expect("run implica")
-}
-
-fn implica_stdin(args: &[&str], input: &[u8]) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_implica"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run implica");
-    child.stdin.take().unwrap().write_all(input).unwrap();
-    child.wait_with_output().unwrap()
-}
-
-fn root() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
-}
+use std::path::PathBuf;
+use std::process::{Command, Output};
 
 /// The exit status of `implica args`.
 fn status(args: &[&str]) -> Option<i32> {

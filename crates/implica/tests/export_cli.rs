@@ -3,25 +3,13 @@
 //! the modules compute the right functions is checked by simulation in
 //! export_sim.rs.
 
-use std::io::Write;
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output, Stdio};
-
-fn root() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
-}
+mod common;
+use common::{implica_stdin_in, root};
+use std::path::Path;
+use std::process::Output;
 
 fn run_in(dir: &Path, args: &[&str], stdin: &str) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_implica"))
-        .args(args)
-        .current_dir(dir)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run implica");
-    let _ = child.stdin.take().unwrap().write_all(stdin.as_bytes());
-    child.wait_with_output().unwrap()
+    implica_stdin_in(dir, args, stdin.as_bytes())
 }
 
 fn run(args: &[&str], stdin: &str) -> Output {

@@ -9,20 +9,11 @@
 //! A missing simulator skips these tests with a loud message, except under
 //! CI (`CI` set), where it fails them; scripts/test installs both.
 
+mod common;
+use common::{implica, root};
 use serde_json::Value;
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
-
-fn root() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
-}
-
-fn implica(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_implica"))
-        .args(args)
-        .output()
-        .expect("run implica")
-}
+use std::process::Command;
 
 /// Whether `tool` runs; under CI its absence is a failure.
 fn have(tool: &str) -> bool {

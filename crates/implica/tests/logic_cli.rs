@@ -1,25 +1,13 @@
 //! `implica minimize` and `implica table`, run as a user would, checked
 //! against published worked examples and textbook facts.
 
+mod common;
+use common::implica_stdin;
 use serde_json::Value;
-use std::io::Write;
-use std::process::{Command, Output, Stdio};
+use std::process::Output;
 
 fn run(args: &[&str], input: &str) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_implica"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run implica");
-    child
-        .stdin
-        .take()
-        .unwrap()
-        .write_all(input.as_bytes())
-        .unwrap();
-    child.wait_with_output().unwrap()
+    implica_stdin(args, input.as_bytes())
 }
 
 fn json(args: &[&str], input: &str) -> (Value, Output) {

@@ -3,13 +3,11 @@
 //! checksum in its README) by the general-purpose validator `jsonschema`
 //! (Draft 4), from the Python environment scripts/test sets up.
 
+mod common;
+use common::root;
 use serde_json::Value;
 use std::path::{Path, PathBuf};
 use std::process::Command;
-
-fn root() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
-}
 
 /// The Python with `jsonschema`, or `None` (with a loud message) when there
 /// is none; under CI its absence is a failure.
