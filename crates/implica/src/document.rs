@@ -16,12 +16,9 @@ pub struct Document {
 /// Reads and parses `path` (`-` is standard input). Syntax errors are
 /// summarized on standard error; the signals they do not touch still work.
 pub fn load(path: &Path) -> Result<Document, String> {
-    let name = if path.as_os_str() == "-" {
-        "<stdin>".to_string()
-    } else {
-        path.display().to_string()
-    };
-    let bytes = files::read_input(path).map_err(|e| format!("{name}: cannot read: {e}"))?;
+    let input = files::Input::from_path(path);
+    let name = input.display();
+    let bytes = files::read(&input).map_err(|e| format!("{name}: cannot read: {e}"))?;
     let (text, encoding) = implica_syntax::decode(&bytes);
     let (file, errors) = implica_syntax::parse(&text);
     let count = errors.len() + usize::from(encoding.is_some());

@@ -32,18 +32,10 @@ pub fn run(
     name: Option<&str>,
     output: Option<&Path>,
 ) -> ExitCode {
-    let input = if path.as_os_str() == "-" {
-        Input::Stdin
-    } else {
-        Input::File(path.to_path_buf())
-    };
+    let input = Input::from_path(path);
     let shown = input.display();
-    let bytes = match files::read(&input) {
-        Ok(b) => b,
-        Err(e) => {
-            eprintln!("implica: {shown}: cannot read: {e}");
-            return ExitCode::from(2);
-        }
+    let Some(bytes) = files::read_or_report(&input) else {
+        return ExitCode::from(2);
     };
     let mut configs = crate::project::Configs::default();
     let config = configs.for_input(&input);

@@ -11,6 +11,15 @@ pub enum Input {
 }
 
 impl Input {
+    /// The input a command-line path names: `-` is standard input.
+    pub fn from_path(path: &Path) -> Input {
+        if path.as_os_str() == "-" {
+            Input::Stdin
+        } else {
+            Input::File(path.to_path_buf())
+        }
+    }
+
     /// The name shown in messages and output.
     pub fn display(&self) -> String {
         match self {
@@ -29,7 +38,7 @@ pub fn collect(paths: &[PathBuf]) -> (Vec<Input>, Vec<String>) {
     let mut problems = Vec::new();
     for p in paths {
         if p.as_os_str() == "-" {
-            inputs.push(Input::Stdin);
+            inputs.push(Input::from_path(p));
         } else if p.is_dir() {
             let mut found = Vec::new();
             walk(p, &mut found, &mut problems);
@@ -81,6 +90,17 @@ pub fn read(input: &Input) -> io::Result<Vec<u8>> {
     match input {
         Input::Stdin => read_input(Path::new("-")),
         Input::File(p) => fs::read(p),
+    }
+}
+
+/// Reads an [`Input`], or says on standard error why it cannot be read.
+pub fn read_or_report(input: &Input) -> Option<Vec<u8>> {
+    match read(input) {
+        Ok(b) => Some(b),
+        Err(e) => {
+            eprintln!("implica: {}: cannot read: {e}", input.display());
+            None
+        }
     }
 }
 

@@ -16,13 +16,9 @@ pub fn run(paths: &[PathBuf], review: bool, diff: bool) -> ExitCode {
     let mut fixed_files = 0;
     for input in &inputs {
         let name = input.display();
-        let bytes = match files::read(input) {
-            Ok(b) => b,
-            Err(e) => {
-                eprintln!("implica: {name}: cannot read: {e}");
-                failed = true;
-                continue;
-            }
+        let Some(bytes) = files::read_or_report(input) else {
+            failed = true;
+            continue;
         };
         let Ok(text) = std::str::from_utf8(&bytes) else {
             eprintln!("implica: {name}: not fixed: the file is not valid UTF-8");

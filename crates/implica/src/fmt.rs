@@ -15,13 +15,9 @@ pub fn run(paths: &[PathBuf], check: bool) -> ExitCode {
     let mut would_change = Vec::new();
     for input in &inputs {
         let name = input.display();
-        let bytes = match files::read(input) {
-            Ok(b) => b,
-            Err(e) => {
-                eprintln!("implica: {name}: cannot read: {e}");
-                failed = true;
-                continue;
-            }
+        let Some(bytes) = files::read_or_report(input) else {
+            failed = true;
+            continue;
         };
         let Ok(text) = std::str::from_utf8(&bytes) else {
             let (text, diags) = implica_analysis::check_bytes(&bytes);
