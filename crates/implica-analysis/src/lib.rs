@@ -21,6 +21,7 @@ pub mod rules;
 pub mod suppress;
 
 pub use forms::to_bool_expr;
+use implica_syntax::ast::SourceFile;
 use implica_syntax::{Span, SyntaxError};
 
 /// How serious a diagnostic is.
@@ -116,18 +117,30 @@ pub fn analyze(src: &str) -> Analysis {
 /// quiet what they name.
 pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
     let (file, errors) = implica_syntax::parse(src);
+    analyze_tree(src, &file, errors, config).0
+}
+
+/// The analysis of a parsed document, with the functions it computed
+/// (`None` when that was cancelled).
+fn analyze_tree(
+    src: &str,
+    file: &SourceFile,
+    errors: Vec<SyntaxError>,
+    config: &config::Config,
+) -> (Analysis, Option<functions::Functions>) {
     let mut diagnostics: Vec<Diagnostic> = errors
         .into_iter()
         .map(rules::syntax_error::diagnostic)
         .collect();
-    let model = model::Model::build(&file);
+    let model = model::Model::build(file);
     let Ok(mut functions) =
         functions::Functions::compute(&model, functions::DEFAULT_WORK_PER_DEFINITION, None)
     else {
-        return Analysis {
+        let analysis = Analysis {
             diagnostics,
             internal_errors: Vec::new(),
         };
+        return (analysis, None);
     };
     let mut cx = rules::Ctx {
         src,
@@ -142,7 +155,7 @@ pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
     for check in rules::CHECKS {
         check(&mut cx, &mut found);
     }
-    let quiet = suppress::collect(&file);
+    let quiet = suppress::collect(file);
     let mut internal_errors = Vec::new();
     for mut d in found {
         let Some(severity) = config.severity(d.rule) else {
@@ -169,10 +182,11 @@ pub fn analyze_with(src: &str, config: &config::Config) -> Analysis {
         diagnostics.push(d);
     }
     diagnostics.sort_by_key(|d| (d.span.start, d.span.end));
-    Analysis {
+    let analysis = Analysis {
         diagnostics,
         internal_errors,
-    }
+    };
+    (analysis, Some(functions))
 }
 
 /// Checks raw bytes: invalid UTF-8 is reported (with its byte offset) and
@@ -185,12 +199,39 @@ pub fn check_bytes(bytes: &[u8]) -> (String, Vec<Diagnostic>) {
 
 /// [`check_bytes`] under a configuration, with the internal errors.
 pub fn check_bytes_with(bytes: &[u8], config: &config::Config) -> (String, Analysis) {
+    let c = check_bytes_keeping(bytes, config);
+    (c.text, c.analysis)
+}
+
+/// A checked document with what its analysis built, for a caller that goes
+/// on computing with it (`implica export`).
+pub struct Checked {
+    /// The decoded text (byte offsets as in the input).
+    pub text: String,
+    pub file: SourceFile,
+    pub analysis: Analysis,
+    /// Every signal's function, indexed by the signals of
+    /// `Model::build(&file)` (the model is rebuilt the same way from the
+    /// same tree); `None` when the analysis was cancelled.
+    pub functions: Option<functions::Functions>,
+}
+
+/// [`check_bytes_with`], keeping the syntax tree and the functions.
+pub fn check_bytes_keeping(bytes: &[u8], config: &config::Config) -> Checked {
     let (text, encoding_error) = implica_syntax::decode(bytes);
-    let mut a = analyze_with(&text, config);
+    let (file, errors) = implica_syntax::parse(&text);
+    let (mut analysis, functions) = analyze_tree(&text, &file, errors, config);
     if let Some(e) = encoding_error {
-        a.diagnostics.insert(0, rules::syntax_error::diagnostic(e));
+        analysis
+            .diagnostics
+            .insert(0, rules::syntax_error::diagnostic(e));
     }
-    (text, a)
+    Checked {
+        text,
+        file,
+        analysis,
+        functions,
+    }
 }
 
 impl From<SyntaxError> for Diagnostic {

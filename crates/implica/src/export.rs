@@ -39,7 +39,12 @@ pub fn run(
     };
     let mut configs = crate::project::Configs::default();
     let config = configs.for_input(&input);
-    let (text, analysis) = implica_analysis::check_bytes_with(&bytes, &config);
+    let implica_analysis::Checked {
+        text,
+        file,
+        analysis,
+        functions,
+    } = implica_analysis::check_bytes_keeping(&bytes, &config);
     let errors: Vec<_> = analysis
         .diagnostics
         .iter()
@@ -68,9 +73,8 @@ pub fn run(
         }
         return ExitCode::from(1);
     }
-    let (file, _) = implica_syntax::parse(&text);
     let model = Model::build(&file);
-    let mut functions = crate::document::functions(&model);
+    let mut functions = functions.unwrap_or_else(|| crate::document::functions(&model));
     let language = match to {
         Target::Verilog => Language::Verilog,
         Target::Vhdl => Language::Vhdl,
