@@ -28,8 +28,7 @@ fn main() {
         eprintln!("corpus: {}: {e}", dir.display());
         std::process::exit(2);
     }
-    let clean = std::env::var_os("CORPUS_CLEAN").is_some();
-    let text = common::spec(signals, clean);
+    let text = common::spec(signals, false);
     let mut lines = 0;
     for k in 0..files {
         let path = dir.join(format!("spec_{k:03}.imp"));

@@ -267,7 +267,14 @@ pub fn export(
                     Err(_) => return Err(too_much(&name)),
                 };
                 let inputs = local.inputs.clone();
-                let (e, note) = pick_form(functions, local, options.config, hazard_free, &name)?;
+                let (e, note) = pick_form(
+                    functions,
+                    local,
+                    options.config,
+                    hazard_free,
+                    &name,
+                    &mut effort,
+                )?;
                 (map_vars(&e, &|i| inputs[i]), Some(note))
             }
             (Logic::AsWritten, Body::Expr(x)) => {
@@ -299,7 +306,14 @@ pub fn export(
                     Ok(Err(u)) => return Err(no_function(model, &name, u)),
                     Err(_) => return Err(too_much(&name)),
                 };
-                let (e, note) = pick_form(functions, local, options.config, hazard_free, &name)?;
+                let (e, note) = pick_form(
+                    functions,
+                    local,
+                    options.config,
+                    hazard_free,
+                    &name,
+                    &mut effort,
+                )?;
                 let what = match body {
                     Body::Terms(_) => "term list",
                     _ => "table",
@@ -403,13 +417,15 @@ fn comments_of(model: &Model, item: usize) -> Vec<String> {
 }
 
 /// The minimal form the configuration asks for, with a note on its cost
-/// and certificate.
+/// and certificate; `effort` is what is left of the signal's work (the
+/// exact search has its own budget, `config.budget`).
 fn pick_form(
     functions: &mut Functions,
     local: Local,
     config: &Config,
     hazard_free: bool,
     name: &str,
+    effort: &mut Effort,
 ) -> Result<(BoolExpr, String), ExportError> {
     // Hazard-free covers are sums of products.
     let (sop, pos) = match (hazard_free, config.form) {
@@ -417,8 +433,7 @@ fn pick_form(
         (false, PreferredForm::Pos) => (false, true),
         (false, PreferredForm::Either) => (true, true),
     };
-    let mut effort = Effort::new(WORK_PER_FORM);
-    let forms = match forms_of(functions, local, sop, pos, &config.budget, &mut effort) {
+    let forms = match forms_of(functions, local, sop, pos, &config.budget, effort) {
         Ok(f) => f,
         Err(Interrupted::OutOfBudget | Interrupted::Cancelled) => return Err(too_much(name)),
     };
@@ -498,9 +513,6 @@ fn pick_form(
     }
     Ok((form.expression, format!("{kind}: {size}; {certificate}")))
 }
-
-/// Work allowed for one minimal form (the exact search has its own budget).
-const WORK_PER_FORM: u64 = 200_000_000;
 
 /// `e` with variable `i` renamed to `f(i)`.
 fn map_vars(e: &BoolExpr, f: &dyn Fn(usize) -> usize) -> BoolExpr {
