@@ -132,7 +132,7 @@ fn verify_local(
         return None;
     }
     let mut effort = Effort::new(DEFAULT_WORK_PER_DEFINITION);
-    let new = match functions.expr_full(model, new_expr, &mut effort) {
+    let new = match functions.expr_value(model, new_expr, &mut effort) {
         Ok(Ok(v)) => v,
         // A name the document does not define: the general proof decides.
         Ok(Err(_)) => return None,

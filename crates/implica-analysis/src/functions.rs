@@ -122,6 +122,17 @@ impl From<Unknown> for Fail {
     }
 }
 
+/// A computation's outcome, with running out of budget as
+/// [`Unknown::TooLarge`]; only cancellation is an error.
+fn settled<T>(r: Result<T, Fail>) -> Result<Result<T, Unknown>, Interrupted> {
+    match r {
+        Ok(v) => Ok(Ok(v)),
+        Err(Fail::Unknown(u)) => Ok(Err(u)),
+        Err(Fail::Stop(Interrupted::OutOfBudget)) => Ok(Err(Unknown::TooLarge)),
+        Err(Fail::Stop(Interrupted::Cancelled)) => Err(Interrupted::Cancelled),
+    }
+}
+
 /// Work allowed per definition (and per `never` statement) by default.
 pub const DEFAULT_WORK_PER_DEFINITION: u64 = 2_000_000;
 
@@ -279,12 +290,7 @@ impl Functions {
         s: SignalId,
         e: &mut Effort,
     ) -> Result<Value, Interrupted> {
-        match self.signal_value(model, s, e) {
-            Ok(k) => Ok(Ok(k)),
-            Err(Fail::Unknown(u)) => Ok(Err(u)),
-            Err(Fail::Stop(Interrupted::OutOfBudget)) => Ok(Err(Unknown::TooLarge)),
-            Err(Fail::Stop(Interrupted::Cancelled)) => Err(Interrupted::Cancelled),
-        }
+        settled(self.signal_value(model, s, e))
     }
 
     /// The primary inputs `s` reads, from those of the signals it reads
@@ -332,22 +338,6 @@ impl Functions {
             }
         }
         Ok(impossible)
-    }
-
-    /// The function of an expression over the document's signals (over
-    /// the primary inputs and the choice variables), as a definition with
-    /// that right-hand side would have it.
-    pub fn expr_full(
-        &mut self,
-        model: &Model,
-        e: &Expr,
-        effort: &mut Effort,
-    ) -> Result<Result<BddRef, Unknown>, Interrupted> {
-        match self.expr(model, e, effort) {
-            Ok(v) => Ok(Ok(v)),
-            Err(Fail::Unknown(u)) => Ok(Err(u)),
-            Err(Fail::Stop(i)) => Err(i),
-        }
     }
 
     /// The function of a signal.
@@ -416,17 +406,13 @@ impl Functions {
                 dc,
             })
         })();
-        match computed {
-            Ok(l) => Ok(Ok(l)),
-            Err(Fail::Unknown(u)) => Ok(Err(u)),
-            Err(Fail::Stop(Interrupted::OutOfBudget)) => Ok(Err(Unknown::TooLarge)),
-            Err(Fail::Stop(Interrupted::Cancelled)) => Err(Interrupted::Cancelled),
-        }
+        settled(computed)
     }
 
-    /// The value of an expression (of a `never` or an `assert`, say) over
-    /// the primary inputs and the choice variables, the way definitions
-    /// read signals: each name stands for its signal's `full` function.
+    /// The value of an expression (of a `never`, an `assert`, or a
+    /// definition's right-hand side) over the primary inputs and the choice
+    /// variables, the way definitions read signals: each name stands for
+    /// its signal's `full` function.
     pub fn expr_value(
         &mut self,
         model: &Model,
