@@ -6,11 +6,11 @@ use implica_analysis::config::Config;
 use implica_syntax::LineIndex;
 use std::collections::HashMap;
 use std::path::{Path, PathBuf};
-use std::sync::Arc as Rc;
+use std::sync::Arc;
 
 #[derive(Default)]
 pub struct Configs {
-    by_file: HashMap<Option<PathBuf>, Rc<Config>>,
+    by_file: HashMap<Option<PathBuf>, Arc<Config>>,
     /// Problems found in configuration files (each also printed).
     pub errors: usize,
 }
@@ -19,7 +19,7 @@ impl Configs {
     /// The configuration for an input: the nearest `implica.toml` above
     /// the file (above the working directory for standard input), or the
     /// defaults.
-    pub fn for_input(&mut self, input: &Input) -> Rc<Config> {
+    pub fn for_input(&mut self, input: &Input) -> Arc<Config> {
         let dir = match input {
             Input::File(p) => p
                 .canonicalize()
@@ -57,7 +57,7 @@ impl Configs {
                 }
             },
         };
-        let config = Rc::new(config);
+        let config = Arc::new(config);
         self.by_file.insert(found, config.clone());
         config
     }
