@@ -536,7 +536,7 @@ fn from_syntax(model: &Model, x: &Expr, net_of: &[Option<usize>]) -> Option<Bool
         .iter()
         .map(|n| net_of[model.signal(n)?])
         .collect::<Option<Vec<usize>>>()?;
-    Some(text::flatten(map_vars(&e, &|i| nets[i])))
+    Some(map_vars(&e, &|i| nets[i]).flattened())
 }
 
 /// Proves that the assignments give each signal they drive its function,

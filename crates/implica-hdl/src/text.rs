@@ -14,58 +14,6 @@ use implica_logic::BoolExpr;
 /// (or AND).
 const WIDTH: usize = 96;
 
-/// `e` with nested operators of the same kind merged (`a & (b & c)` is
-/// `a & b & c`) and one-operand operators dropped.
-pub(crate) fn flatten(e: BoolExpr) -> BoolExpr {
-    fn merge(es: Vec<BoolExpr>, same: fn(&BoolExpr) -> Option<&Vec<BoolExpr>>) -> Vec<BoolExpr> {
-        let mut out = Vec::with_capacity(es.len());
-        for x in es {
-            let x = flatten(x);
-            match same(&x) {
-                Some(_) => {
-                    if let BoolExpr::And(v) | BoolExpr::Or(v) | BoolExpr::Xor(v) = x {
-                        out.extend(v);
-                    }
-                }
-                None => out.push(x),
-            }
-        }
-        out
-    }
-    let one = |mut v: Vec<BoolExpr>, wrap: fn(Vec<BoolExpr>) -> BoolExpr| {
-        if v.len() == 1 {
-            v.pop().unwrap_or(BoolExpr::Const(false))
-        } else {
-            wrap(v)
-        }
-    };
-    match e {
-        BoolExpr::Not(x) => BoolExpr::negate(flatten(*x)),
-        BoolExpr::And(es) => one(
-            merge(es, |x| match x {
-                BoolExpr::And(v) => Some(v),
-                _ => None,
-            }),
-            BoolExpr::And,
-        ),
-        BoolExpr::Or(es) => one(
-            merge(es, |x| match x {
-                BoolExpr::Or(v) => Some(v),
-                _ => None,
-            }),
-            BoolExpr::Or,
-        ),
-        BoolExpr::Xor(es) => one(
-            merge(es, |x| match x {
-                BoolExpr::Xor(v) => Some(v),
-                _ => None,
-            }),
-            BoolExpr::Xor,
-        ),
-        other => other,
-    }
-}
-
 /// The spelling of a target language's operators.
 struct Syntax {
     t: &'static str,

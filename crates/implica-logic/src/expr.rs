@@ -93,6 +93,43 @@ impl BoolExpr {
         two_level(complement, true, BoolExpr::Or, BoolExpr::And)
     }
 
+    /// The same function with nested operators of one kind merged
+    /// (`a & (b & c)` is `a & b & c`; an empty `And` inside an `And` goes)
+    /// and operators of one operand replaced by it.
+    pub fn flattened(self) -> BoolExpr {
+        fn kind(e: &BoolExpr) -> u8 {
+            match e {
+                BoolExpr::And(_) => 1,
+                BoolExpr::Or(_) => 2,
+                BoolExpr::Xor(_) => 3,
+                _ => 0,
+            }
+        }
+        let k = kind(&self);
+        let (BoolExpr::And(es) | BoolExpr::Or(es) | BoolExpr::Xor(es)) = self else {
+            return match self {
+                BoolExpr::Not(x) => BoolExpr::negate(x.flattened()),
+                leaf => leaf,
+            };
+        };
+        let mut out = Vec::with_capacity(es.len());
+        for x in es.into_iter().map(BoolExpr::flattened) {
+            if kind(&x) != k {
+                out.push(x);
+            } else if let BoolExpr::And(v) | BoolExpr::Or(v) | BoolExpr::Xor(v) = x {
+                out.extend(v);
+            }
+        }
+        match <[BoolExpr; 1]>::try_from(out) {
+            Ok([x]) => x,
+            Err(out) => match k {
+                1 => BoolExpr::And(out),
+                2 => BoolExpr::Or(out),
+                _ => BoolExpr::Xor(out),
+            },
+        }
+    }
+
     /// Infix text with `!`, `&`, `^`, `|`, naming variable `i` by `name(i)`.
     /// Parentheses appear only where precedence (`!` over `&` over `^` over
     /// `|`) requires them.

@@ -91,3 +91,38 @@ fn variables_have_their_bit_of_the_row_number() {
         }
     }
 }
+
+/// Whether an operator has one operand or an operand of its own kind.
+fn nested(e: &BoolExpr) -> bool {
+    let same = |a: &BoolExpr, b: &BoolExpr| std::mem::discriminant(a) == std::mem::discriminant(b);
+    match e {
+        BoolExpr::Not(x) => nested(x),
+        BoolExpr::And(v) | BoolExpr::Or(v) | BoolExpr::Xor(v) => {
+            v.len() == 1 || v.iter().any(|x| same(e, x) || nested(x))
+        }
+        _ => false,
+    }
+}
+
+proptest! {
+    /// Flattening keeps the function and leaves no operator of one operand
+    /// and none directly inside one of its own kind.
+    #[test]
+    fn flattened_expressions_keep_their_function(e in expr(6)) {
+        let f = e.clone().flattened();
+        prop_assert_eq!(f.truth_table(6), e.truth_table(6));
+        prop_assert!(!nested(&f), "{:?}", f);
+    }
+}
+
+#[test]
+fn flattening_merges_and_drops() {
+    use BoolExpr::{And, Or, Var};
+    let e = And(vec![
+        Var(0),
+        And(vec![Var(1), And(vec![])]),
+        Or(vec![Var(2)]),
+    ]);
+    assert_eq!(e.flattened(), And(vec![Var(0), Var(1), Var(2)]));
+    assert_eq!(Or(vec![Or(vec![])]).flattened(), Or(vec![]));
+}
