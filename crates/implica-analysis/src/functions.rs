@@ -387,10 +387,8 @@ impl Functions {
         body: Body,
         effort: &mut Effort,
     ) -> Result<Result<Local, Unknown>, Interrupted> {
-        let k = match body {
-            Body::Terms(t) => t.over.len(),
-            Body::Column { table, .. } => table.inputs.len(),
-            Body::Expr(_) => return Ok(Err(Unknown::Malformed)),
+        let Some(k) = body.header().map(<[_]>::len) else {
+            return Ok(Err(Unknown::Malformed));
         };
         if k > self.bdd.vars() {
             return Ok(Err(Unknown::TooLarge));
@@ -438,15 +436,11 @@ impl Functions {
         let Some(def) = model.definition_of(s) else {
             return Err(Unknown::Undefined(s).into());
         };
-        let (on, free) = match def.body {
-            Body::Expr(x) => (self.expr(model, x, e)?, BddRef::FALSE),
-            body => {
-                let over = match body {
-                    Body::Terms(t) => t.over.iter(),
-                    Body::Column { table, .. } => table.inputs.iter(),
-                    Body::Expr(_) => unreachable!("handled above"),
-                };
-                let over = self.names(model, over.map(|n| n.text.as_str()))?;
+        let (on, free) = match (def.body, def.body.header()) {
+            (Body::Expr(x), _) => (self.expr(model, x, e)?, BddRef::FALSE),
+            (body, header) => {
+                let header = header.unwrap_or_default().iter();
+                let over = self.names(model, header.map(|n| n.text.as_str()))?;
                 self.listed(body, &over, e)?
             }
         };

@@ -58,6 +58,18 @@ pub enum Body<'f> {
     },
 }
 
+impl<'f> Body<'f> {
+    /// The signals a term list (`over (...)`) or a table column (the
+    /// table's input columns) is stated over; `None` for an expression.
+    pub fn header(&self) -> Option<&'f [Name]> {
+        match *self {
+            Body::Expr(_) => None,
+            Body::Terms(t) => Some(&t.over),
+            Body::Column { table, .. } => Some(&table.inputs),
+        }
+    }
+}
+
 /// One definition of one signal.
 #[derive(Debug, Clone)]
 pub struct Definition<'f> {

@@ -260,23 +260,6 @@ pub fn export(
         };
         let mut effort = Effort::new(options.work_per_signal);
         let (expr, note) = match (options.logic, def.body) {
-            (Logic::Minimized, _) => {
-                let local = match functions.local(s, &mut effort) {
-                    Ok(Ok(l)) => l,
-                    Ok(Err(u)) => return Err(no_function(model, &name, u)),
-                    Err(_) => return Err(too_much(&name)),
-                };
-                let inputs = local.inputs.clone();
-                let (e, note) = pick_form(
-                    functions,
-                    local,
-                    options.config,
-                    hazard_free,
-                    &name,
-                    &mut effort,
-                )?;
-                (map_vars(&e, &|i| inputs[i]), Some(note))
-            }
             (Logic::AsWritten, Body::Expr(x)) => {
                 let e = from_syntax(model, x, &net_of).ok_or_else(|| ExportError::NoFunction {
                     signal: name.clone(),
@@ -284,27 +267,42 @@ pub fn export(
                 })?;
                 (e, None)
             }
-            (Logic::AsWritten, body) => {
-                listed_bodies = true;
-                let header: Vec<&str> = match body {
-                    Body::Terms(t) => t.over.iter().map(|n| n.text.as_str()).collect(),
-                    Body::Column { table, .. } => {
-                        table.inputs.iter().map(|n| n.text.as_str()).collect()
-                    }
-                    Body::Expr(_) => unreachable!("handled above"),
+            // A minimal form: of the signal over the inputs it reads, or
+            // (as written) of a table or term list over its own columns.
+            (logic, body) => {
+                let (local, header) = if logic == Logic::Minimized {
+                    (functions.local(s, &mut effort), None)
+                } else {
+                    listed_bodies = true;
+                    let header_nets = body
+                        .header()
+                        .unwrap_or_default()
+                        .iter()
+                        .map(|h| model.signal(&h.text).and_then(|x| net_of[x]))
+                        .collect::<Option<Vec<usize>>>()
+                        .ok_or_else(|| ExportError::NoFunction {
+                            signal: name.clone(),
+                            why: "its header names a signal that is not defined".to_string(),
+                        })?;
+                    let what = match body {
+                        Body::Terms(_) => "term list",
+                        _ => "table",
+                    };
+                    let line = line_of(model.file.items[def.item].span.start);
+                    let place = format!("the {what} at line {line}");
+                    (
+                        functions.listed_over_header(body, &mut effort),
+                        Some((header_nets, place)),
+                    )
                 };
-                let header_nets = header
-                    .iter()
-                    .map(|h| model.signal(h).and_then(|x| net_of[x]))
-                    .collect::<Option<Vec<usize>>>()
-                    .ok_or_else(|| ExportError::NoFunction {
-                        signal: name.clone(),
-                        why: "its header names a signal that is not defined".to_string(),
-                    })?;
-                let local = match functions.listed_over_header(body, &mut effort) {
+                let local = match local {
                     Ok(Ok(l)) => l,
                     Ok(Err(u)) => return Err(no_function(model, &name, u)),
                     Err(_) => return Err(too_much(&name)),
+                };
+                let nets = match &header {
+                    Some((nets, _)) => nets.clone(),
+                    None => local.inputs.clone(),
                 };
                 let (e, note) = pick_form(
                     functions,
@@ -314,15 +312,11 @@ pub fn export(
                     &name,
                     &mut effort,
                 )?;
-                let what = match body {
-                    Body::Terms(_) => "term list",
-                    _ => "table",
+                let note = match header {
+                    Some((_, place)) => format!("{place}: {note}"),
+                    None => note,
                 };
-                let line = line_of(model.file.items[def.item].span.start);
-                (
-                    map_vars(&e, &|j| header_nets[j]),
-                    Some(format!("the {what} at line {line}: {note}")),
-                )
+                (map_vars(&e, &|i| nets[i]), Some(note))
             }
         };
         let target = net_of[s].unwrap_or_else(|| unreachable!("targets have nets"));

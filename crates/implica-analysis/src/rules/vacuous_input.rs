@@ -207,12 +207,14 @@ fn names<'e>(e: &'e Expr, out: &mut Vec<(&'e str, Span)>) {
 fn occurrences<'c>(m: &'c Model, s: SignalId) -> Vec<(&'c str, Span)> {
     let mut out = Vec::new();
     if let Some(def) = m.definition_of(s) {
-        match def.body {
-            Body::Expr(e) => names(e, &mut out),
-            Body::Terms(t) => out.extend(t.over.iter().map(|n| (n.text.as_str(), n.span))),
-            Body::Column { table, .. } => {
-                out.extend(table.inputs.iter().map(|n| (n.text.as_str(), n.span)))
-            }
+        match (def.body, def.body.header()) {
+            (Body::Expr(e), _) => names(e, &mut out),
+            (_, header) => out.extend(
+                header
+                    .unwrap_or_default()
+                    .iter()
+                    .map(|n| (n.text.as_str(), n.span)),
+            ),
         }
     }
     out
