@@ -63,7 +63,7 @@ fn verify_local(
     functions: &mut Functions,
     src: &str,
     fix: &Fix,
-) -> Option<Result<String, String>> {
+) -> Option<Result<(), String>> {
     use implica_syntax::ast::{ItemKind, Rhs};
     let first = fix.edits.first()?;
     let item = model
@@ -144,10 +144,24 @@ fn verify_local(
         functions.bdd.and(d, possible, &mut effort)
     })();
     Some(match differs {
-        Ok(BddRef::FALSE) => apply(src, &fix.edits),
+        Ok(BddRef::FALSE) => Ok(()),
         Ok(_) => Err(format!("`{}` would change", old_def.target.text)),
         Err(_) => Err("the proof ran out of budget".to_string()),
     })
+}
+
+/// [`verify_in`] without building the fixed text when the proof is local
+/// (the analysis only needs the verdict).
+pub fn prove_in(
+    model: &Model,
+    functions: &mut Functions,
+    src: &str,
+    fix: &Fix,
+) -> Result<(), String> {
+    match verify_local(model, functions, src, fix) {
+        Some(r) => r,
+        None => verify_general(model, functions, src, fix).map(drop),
+    }
 }
 
 /// [`verify`], reusing the analysis of `src` (its model and functions): only
@@ -159,9 +173,20 @@ pub fn verify_in(
     src: &str,
     fix: &Fix,
 ) -> Result<String, String> {
-    if let Some(r) = verify_local(model, functions, src, fix) {
-        return r;
+    match verify_local(model, functions, src, fix) {
+        Some(r) => r.and_then(|()| apply(src, &fix.edits)),
+        None => verify_general(model, functions, src, fix),
     }
+}
+
+/// The proof of any fix: the fixed text parsed and its functions computed
+/// in the same manager, every signal compared.
+fn verify_general(
+    model: &Model,
+    functions: &mut Functions,
+    src: &str,
+    fix: &Fix,
+) -> Result<String, String> {
     let after = apply(src, &fix.edits)?;
     let (old_errors, new_errors) = (
         implica_syntax::parse(src).1.len(),

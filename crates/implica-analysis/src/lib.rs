@@ -168,7 +168,7 @@ fn analyze_tree(
             d.severity = severity;
         }
         d.fixes.retain(
-            |fix| match fixes::verify_in(&model, &mut functions, src, fix) {
+            |fix| match fixes::prove_in(&model, &mut functions, src, fix) {
                 Ok(_) => true,
                 Err(why) => {
                     internal_errors.push(format!(
