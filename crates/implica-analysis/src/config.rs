@@ -22,7 +22,7 @@ use crate::rules::{self, OFF_BY_DEFAULT};
 use implica_logic::Budget;
 use implica_syntax::Span;
 use serde::Deserialize;
-use std::collections::{BTreeMap, HashMap};
+use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 use toml::Spanned;
 
@@ -42,11 +42,11 @@ pub enum PreferredForm {
 #[derive(Debug, Clone)]
 pub struct Config {
     /// `None`: the rule is off.
-    severities: HashMap<&'static str, Option<Severity>>,
+    severities: crate::hash::FastMap<&'static str, Option<Severity>>,
     /// Rules whose severity the configuration sets (the others keep the
     /// severity each diagnostic comes with: a rule may raise its default
     /// for a worse case).
-    explicit: std::collections::HashSet<&'static str>,
+    explicit: crate::hash::FastSet<&'static str>,
     pub form: PreferredForm,
     pub budget: Budget,
 }
@@ -61,7 +61,7 @@ pub struct ConfigError {
 
 impl Default for Config {
     fn default() -> Config {
-        let mut severities = HashMap::new();
+        let mut severities = crate::hash::FastMap::default();
         for r in rules::ALL {
             let on = !OFF_BY_DEFAULT.contains(&r.name);
             severities.insert(r.name, on.then_some(r.default_severity));

@@ -150,18 +150,126 @@ fn verify_local(
     })
 }
 
-/// [`verify_in`] without building the fixed text when the proof is local
-/// (the analysis only needs the verdict).
-pub fn prove_in(
+/// The proof of a fix that only takes names out of one `input` statement
+/// (or deletes the statement with its line): that line, edited and parsed
+/// on its own, declares the old names less some, keeps its comments, and
+/// each name taken out is an input that nothing in the document reads or
+/// defines. The rest of the text is untouched, so every definition,
+/// `never`, assertion and test vector reads the same signals as before and
+/// every signal keeps its function. `None` when the fix is of another kind.
+fn verify_unread_inputs(model: &Model, src: &str, fix: &Fix) -> Option<Result<(), String>> {
+    use implica_syntax::ast::{ItemKind, Trivia};
+    let first = fix.edits.first()?;
+    let item = model.file.items.iter().find(|it| {
+        let line = crate::rules::statement_line(src, it.span);
+        line.start <= first.span.start && first.span.end <= line.end.max(it.span.end)
+    })?;
+    let ItemKind::Input(old_decl) = &item.kind else {
+        return None;
+    };
+    // The statement's own lines: from the start of its first line through
+    // its line break.
+    let start = src[..item.span.start].rfind('\n').map_or(0, |i| i + 1);
+    let end = src[item.span.end..]
+        .find('\n')
+        .map_or(src.len(), |i| item.span.end + i + 1);
+    if !fix
+        .edits
+        .iter()
+        .all(|e| start <= e.span.start && e.span.end <= end)
+    {
+        return None;
+    }
+    let local: Vec<Edit> = fix
+        .edits
+        .iter()
+        .map(|e| Edit {
+            span: implica_syntax::Span::new(e.span.start - start, e.span.end - start),
+            new_text: e.new_text.clone(),
+        })
+        .collect();
+    let text = match apply(&src[start..end], &local) {
+        Ok(t) => t,
+        Err(e) => return Some(Err(e)),
+    };
+    let (file, errors) = implica_syntax::parse(&text);
+    if !errors.is_empty() {
+        return None;
+    }
+    // The comments on the edited lines: the statement's own, not those on
+    // the lines above it.
+    let own = |t: &Trivia| -> Vec<String> {
+        t.trailing()
+            .into_iter()
+            .chain(t.interior())
+            .map(|c| c.text.to_string())
+            .collect()
+    };
+    let (kept, mut now): (Vec<&str>, Vec<String>) = match &file.items[..] {
+        [] => (Vec::new(), Vec::new()),
+        [it] => match &it.kind {
+            ItemKind::Input(d) => (
+                d.names.iter().map(|n| n.text.as_str()).collect(),
+                own(&it.trivia),
+            ),
+            _ => return None,
+        },
+        _ => return None,
+    };
+    now.extend(
+        file.items
+            .iter()
+            .flat_map(|it| it.trivia.leading())
+            .map(|(_, c)| c.text.to_string()),
+    );
+    now.extend(
+        file.trailing_comments
+            .iter()
+            .map(|(_, c)| c.text.to_string()),
+    );
+    if !own(&item.trivia).iter().all(|c| now.contains(c)) {
+        return None;
+    }
+    let mut rest = kept.iter().peekable();
+    for n in &old_decl.names {
+        if rest.peek() == Some(&&n.text.as_str()) {
+            rest.next();
+            continue;
+        }
+        let s = model.signal(&n.text)?;
+        let sig = &model.signals[s];
+        if sig.kind != SignalKind::Input
+            || !sig.references.is_empty()
+            || !sig.definitions.is_empty()
+        {
+            return Some(Err(format!(
+                "`{}` is read or defined, and would no longer be an input",
+                n.text
+            )));
+        }
+    }
+    if rest.next().is_some() {
+        return None;
+    }
+    Some(Ok(()))
+}
+
+/// [`verify_in`] for the analysis, which knows how many syntax errors `src`
+/// has and needs only the verdict.
+pub(crate) fn prove_in(
     model: &Model,
     functions: &mut Functions,
     src: &str,
+    syntax_errors: usize,
     fix: &Fix,
 ) -> Result<(), String> {
-    match verify_local(model, functions, src, fix) {
-        Some(r) => r,
-        None => verify_general(model, functions, src, fix).map(drop),
+    if let Some(r) = verify_local(model, functions, src, fix) {
+        return r;
     }
+    if let Some(r) = verify_unread_inputs(model, src, fix) {
+        return r;
+    }
+    verify_general(model, functions, src, Some(syntax_errors), fix).map(drop)
 }
 
 /// [`verify`], reusing the analysis of `src` (its model and functions): only
@@ -175,24 +283,23 @@ pub fn verify_in(
 ) -> Result<String, String> {
     match verify_local(model, functions, src, fix) {
         Some(r) => r.and_then(|()| apply(src, &fix.edits)),
-        None => verify_general(model, functions, src, fix),
+        None => verify_general(model, functions, src, None, fix),
     }
 }
 
 /// The proof of any fix: the fixed text parsed and its functions computed
-/// in the same manager, every signal compared.
+/// in the same manager, every signal compared. `syntax_errors`: how many
+/// `src` has, when known.
 fn verify_general(
     model: &Model,
     functions: &mut Functions,
     src: &str,
+    syntax_errors: Option<usize>,
     fix: &Fix,
 ) -> Result<String, String> {
     let after = apply(src, &fix.edits)?;
-    let (old_errors, new_errors) = (
-        implica_syntax::parse(src).1.len(),
-        implica_syntax::parse(&after),
-    );
-    let (new_file, new_errors) = new_errors;
+    let old_errors = syntax_errors.unwrap_or_else(|| implica_syntax::parse(src).1.len());
+    let (new_file, new_errors) = implica_syntax::parse(&after);
     if new_errors.len() > old_errors {
         return Err(format!(
             "the fixed text does not parse: {}",

@@ -16,7 +16,9 @@
 
 use crate::model::{Body, Model, SignalId};
 use implica_logic::{Bdd, BddRef, Effort, Interrupted};
-use implica_syntax::ast::{BinOp, CellValue, Expr, ExprKind, RowKind, TermEntry, TermKind};
+use implica_syntax::ast::{
+    BinOp, CellValue, Expr, ExprKind, RowKind, SmolStr, TermEntry, TermKind,
+};
 
 /// Why a signal has no known function.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -188,8 +190,7 @@ impl Functions {
         new: (&Model, &str),
         work_per_definition: u64,
     ) -> Option<Result<Edited, Interrupted>> {
-        let (om, osrc) = old;
-        let (nm, nsrc) = new;
+        let (om, nm) = (old.0, new.0);
         let names = |m: &Model| -> Vec<String> {
             m.inputs
                 .iter()
@@ -228,16 +229,85 @@ impl Functions {
         );
         let saved_reads = std::mem::replace(&mut self.reads, vec![Vec::new(); nm.signals.len()]);
         let saved_impossible = self.impossible;
-        let text_of = |m: &Model, src: &str, s: SignalId| -> Option<(String, usize)> {
+        let result = self.recompute(
+            old,
+            new,
+            (&saved_values, &saved_reads),
+            work_per_definition,
+            None,
+        );
+        self.input_vars = None;
+        let values = std::mem::replace(&mut self.values, saved_values);
+        self.reads = saved_reads;
+        let impossible = std::mem::replace(&mut self.impossible, saved_impossible);
+        Some(result.map(|()| Edited { values, impossible }))
+    }
+
+    /// Makes these the functions of an edited version of the document, as
+    /// [`Functions::edited`] computes them, in place: what the edit did not
+    /// touch is kept. Returns `None` (and changes nothing) unless both
+    /// versions have the same inputs in the same order; after an error the
+    /// values are of neither version and must not be used.
+    pub fn update(
+        &mut self,
+        old: (&Model, &str),
+        new: (&Model, &str),
+        work_per_definition: u64,
+        cancel: Option<&dyn Fn() -> bool>,
+    ) -> Option<Result<(), Interrupted>> {
+        let names = |m: &Model| -> Vec<SmolStr> {
+            m.inputs
+                .iter()
+                .map(|&s| m.signals[s].name.clone())
+                .collect()
+        };
+        if names(old.0) != names(new.0) || self.input_vars.is_some() {
+            return None;
+        }
+        let saved_values = std::mem::replace(
+            &mut self.values,
+            vec![Err(Unknown::Cyclic); new.0.signals.len()],
+        );
+        let saved_reads = std::mem::replace(&mut self.reads, vec![Vec::new(); new.0.signals.len()]);
+        Some(self.recompute(
+            old,
+            new,
+            (&saved_values, &saved_reads),
+            work_per_definition,
+            cancel,
+        ))
+    }
+
+    /// The values, reads and impossible combinations of version `new` into
+    /// `self` (whose vectors are fresh), reusing version `old`'s (`saved`)
+    /// for each signal whose statement text and read values are the same.
+    fn recompute<'s>(
+        &mut self,
+        old: (&Model, &'s str),
+        new: (&Model, &'s str),
+        saved: (&[Value], &[Vec<usize>]),
+        work_per_definition: u64,
+        cancel: Option<&dyn Fn() -> bool>,
+    ) -> Result<(), Interrupted> {
+        let (om, osrc) = old;
+        let (nm, nsrc) = new;
+        let (saved_values, saved_reads) = saved;
+        let effort = || {
+            let e = Effort::new(work_per_definition);
+            match cancel {
+                Some(c) => e.with_cancel(c),
+                None => e,
+            }
+        };
+        let text_of = |m: &Model, src: &'s str, s: SignalId| -> Option<(&'s str, usize)> {
             let d = m.definition_of(s)?;
             let item = &m.file.items[d.item];
             let column = match d.body {
                 Body::Column { column, .. } => column,
                 _ => usize::MAX,
             };
-            Some((src.get(item.span.start..item.span.end)?.to_string(), column))
+            Some((src.get(item.span.start..item.span.end)?, column))
         };
-        let mut result = Ok(());
         for &s in &nm.order {
             let name = &nm.signals[s].name;
             let reuse = om.signal(name).and_then(|o| {
@@ -251,7 +321,9 @@ impl Functions {
                 });
                 let same_kind = om.signals[o].input_index
                     == nm.signals[s].input_index.map(|i| self.input_var(i));
-                (same_text && same_reads && same_kind)
+                // An unknown value names signals of the old model: computed
+                // again (it is cheap), so that it names the new one's.
+                (same_text && same_reads && same_kind && saved_values[o].is_ok())
                     .then(|| (saved_values[o], saved_reads[o].clone()))
             });
             if let Some((v, r)) = reuse {
@@ -259,27 +331,12 @@ impl Functions {
                 self.reads[s] = r;
                 continue;
             }
-            match self.computed(nm, s, &mut Effort::new(work_per_definition)) {
-                Ok(v) => self.values[s] = v,
-                Err(i) => {
-                    result = Err(i);
-                    break;
-                }
-            }
+            self.values[s] = self.computed(nm, s, &mut effort())?;
             self.reads[s] = self.input_reads(nm, s);
         }
         self.impossible = BddRef::FALSE;
-        if result.is_ok() {
-            match self.impossible_of(nm, &|| Effort::new(work_per_definition)) {
-                Ok(i) => self.impossible = i,
-                Err(i) => result = Err(i),
-            }
-        }
-        self.input_vars = None;
-        let values = std::mem::replace(&mut self.values, saved_values);
-        self.reads = saved_reads;
-        let impossible = std::mem::replace(&mut self.impossible, saved_impossible);
-        Some(result.map(|()| Edited { values, impossible }))
+        self.impossible = self.impossible_of(nm, &effort)?;
+        Ok(())
     }
 
     /// Signal `s`'s value, with running out of budget as

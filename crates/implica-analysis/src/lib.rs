@@ -15,9 +15,11 @@ pub mod config;
 pub mod fixes;
 mod forms;
 pub mod functions;
+mod hash;
 pub mod minimal;
 pub mod model;
 pub mod rules;
+pub mod session;
 pub mod suppress;
 
 pub use forms::to_bool_expr;
@@ -128,31 +130,65 @@ fn analyze_tree(
     errors: Vec<SyntaxError>,
     config: &config::Config,
 ) -> (Analysis, Option<functions::Functions>) {
-    let mut diagnostics: Vec<Diagnostic> = errors
-        .into_iter()
-        .map(rules::syntax_error::diagnostic)
-        .collect();
     let model = model::Model::build(file);
-    let Ok(mut functions) =
-        functions::Functions::compute(&model, functions::DEFAULT_WORK_PER_DEFINITION, None)
-    else {
-        let analysis = Analysis {
-            diagnostics,
-            internal_errors: Vec::new(),
-        };
-        return (analysis, None);
-    };
+    match functions::Functions::compute(&model, functions::DEFAULT_WORK_PER_DEFINITION, None) {
+        Ok(functions) => {
+            let mut cache = session::Cache::default();
+            let run = run_rules(
+                src, file, &model, errors, config, &mut cache, functions, None,
+            );
+            match run {
+                Some((a, f)) => (a, Some(f)),
+                None => (Analysis::default(), None),
+            }
+        }
+        Err(_) => (syntax_only(errors), None),
+    }
+}
+
+/// The syntax errors alone, when there are no functions to check with.
+fn syntax_only(errors: Vec<SyntaxError>) -> Analysis {
+    Analysis {
+        diagnostics: errors
+            .into_iter()
+            .map(rules::syntax_error::diagnostic)
+            .collect(),
+        internal_errors: Vec::new(),
+    }
+}
+
+/// Every rule on a document whose functions are computed, each fix proven;
+/// `None` when `cancel` says stop. Gives the functions back, grown by the
+/// proofs, for a session to keep.
+#[allow(clippy::too_many_arguments)]
+fn run_rules(
+    src: &str,
+    file: &SourceFile,
+    model: &model::Model,
+    errors: Vec<SyntaxError>,
+    config: &config::Config,
+    cache: &mut session::Cache,
+    mut functions: functions::Functions,
+    cancel: Option<&dyn Fn() -> bool>,
+) -> Option<(Analysis, functions::Functions)> {
+    let stop = || cancel.is_some_and(|c| c());
+    let mut diagnostics = syntax_only(errors).diagnostics;
+    let syntax_errors = diagnostics.len();
     let mut cx = rules::Ctx {
         src,
         config,
         has_syntax_errors: !diagnostics.is_empty(),
-        model: &model,
+        model,
         functions: &mut functions,
+        cache,
         forms: Default::default(),
         non_minimal: Default::default(),
     };
     let mut found = Vec::new();
     for check in rules::CHECKS {
+        if stop() {
+            return None;
+        }
         check(&mut cx, &mut found);
     }
     let quiet = suppress::collect(file);
@@ -167,8 +203,11 @@ fn analyze_tree(
         if config.sets(d.rule) {
             d.severity = severity;
         }
-        d.fixes.retain(
-            |fix| match fixes::prove_in(&model, &mut functions, src, fix) {
+        if stop() {
+            return None;
+        }
+        d.fixes.retain(|fix| {
+            match fixes::prove_in(model, &mut functions, src, syntax_errors, fix) {
                 Ok(_) => true,
                 Err(why) => {
                     internal_errors.push(format!(
@@ -177,8 +216,8 @@ fn analyze_tree(
                     ));
                     false
                 }
-            },
-        );
+            }
+        });
         diagnostics.push(d);
     }
     diagnostics.sort_by_key(|d| (d.span.start, d.span.end));
@@ -186,7 +225,7 @@ fn analyze_tree(
         diagnostics,
         internal_errors,
     };
-    (analysis, Some(functions))
+    Some((analysis, functions))
 }
 
 /// Checks raw bytes: invalid UTF-8 is reported (with its byte offset) and

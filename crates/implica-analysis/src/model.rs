@@ -9,7 +9,6 @@ use implica_syntax::Span;
 use implica_syntax::ast::{
     Expr, ExprKind, ItemKind, Name, Rhs, SmolStr, SourceFile, Table, TermList,
 };
-use std::collections::HashMap;
 
 /// Index of a signal in [`Model::signals`].
 pub type SignalId = usize;
@@ -111,7 +110,7 @@ pub struct Model<'f> {
     /// The signals, each after every signal its definition reads; signals
     /// on a cycle are left out.
     pub order: Vec<SignalId>,
-    by_name: HashMap<SmolStr, SignalId>,
+    by_name: crate::hash::FastMap<SmolStr, SignalId>,
 }
 
 impl<'f> Model<'f> {
@@ -127,7 +126,7 @@ impl<'f> Model<'f> {
             expects: Vec::new(),
             cycles: Vec::new(),
             order: Vec::new(),
-            by_name: HashMap::new(),
+            by_name: Default::default(),
         };
         // Declarations first, so that a use before the declaration resolves.
         for item in &file.items {

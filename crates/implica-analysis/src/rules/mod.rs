@@ -128,30 +128,50 @@ pub struct Ctx<'a, 'f> {
     pub has_syntax_errors: bool,
     pub model: &'a Model<'f>,
     pub functions: &'a mut Functions,
+    /// Per-definition results kept from the last analysis (see
+    /// [`crate::session`]).
+    pub(crate) cache: &'a mut crate::session::Cache,
     /// Expression definitions as functions of the names they read, by
     /// definition, computed once for the rules that need them.
     pub(crate) forms:
-        std::collections::HashMap<usize, Option<std::rc::Rc<crate::forms::ExprFunction>>>,
+        crate::hash::FastMap<usize, Option<std::sync::Arc<crate::forms::ExprFunction>>>,
     /// Whether `non-minimal` reports a definition, with the minimal forms.
-    pub(crate) non_minimal: std::collections::HashMap<usize, Option<std::rc::Rc<MinimalPair>>>,
+    pub(crate) non_minimal: crate::hash::FastMap<usize, Option<std::sync::Arc<MinimalPair>>>,
 }
 
 /// The minimal sum of products and product of sums of an expression.
 pub(crate) type MinimalPair = (implica_logic::Minimized, implica_logic::Minimized);
 
-impl Ctx<'_, '_> {
+impl<'a> Ctx<'a, '_> {
     /// Definition `id`'s expression as a function of the names it reads.
     pub(crate) fn expr_function(
         &mut self,
         id: usize,
         e: &implica_syntax::ast::Expr,
-    ) -> Option<std::rc::Rc<crate::forms::ExprFunction>> {
+    ) -> Option<std::sync::Arc<crate::forms::ExprFunction>> {
         if let Some(f) = self.forms.get(&id) {
             return f.clone();
         }
-        let mut effort = implica_logic::Effort::new(5_000_000);
-        let f = crate::forms::expr_function(self.model, self.functions, e, &mut effort)
-            .map(std::rc::Rc::new);
+        // What the result depends on: the text, the functions of the names
+        // it reads (in this manager), and the impossible combinations.
+        let def = &self.model.definitions[id];
+        let key = crate::session::ValueKey {
+            text: self.text_of(e).into(),
+            values: def
+                .reads
+                .iter()
+                .map(|&r| {
+                    let v = self.functions.value(r).ok().map(|k| k.full);
+                    (self.model.signals[r].name.clone(), v)
+                })
+                .collect(),
+            impossible: self.functions.impossible,
+        };
+        let (model, functions) = (self.model, &mut *self.functions);
+        let f = self.cache.expr_functions.get_or(key, || {
+            let mut effort = implica_logic::Effort::new(5_000_000);
+            crate::forms::expr_function(model, functions, e, &mut effort).map(std::sync::Arc::new)
+        });
         self.forms.insert(id, f.clone());
         f
     }
@@ -164,7 +184,7 @@ impl Ctx<'_, '_> {
         id: usize,
         e: &'e implica_syntax::ast::Expr,
     ) -> Option<(
-        std::rc::Rc<crate::forms::ExprFunction>,
+        std::sync::Arc<crate::forms::ExprFunction>,
         crate::forms::TwoLevel<'e>,
     )> {
         let f = self.expr_function(id, e)?;
@@ -175,19 +195,44 @@ impl Ctx<'_, '_> {
         Some((f, t))
     }
 
-    /// [`crate::forms::non_minimal_applies`] for definition `id`, once.
+    /// [`crate::forms::non_minimal_applies`] for definition `id`, once, and
+    /// kept for the next analysis under the expression's content.
     pub(crate) fn non_minimal(
         &mut self,
         id: usize,
         e: &implica_syntax::ast::Expr,
         f: &crate::forms::ExprFunction,
-    ) -> Option<std::rc::Rc<MinimalPair>> {
+    ) -> Option<std::sync::Arc<MinimalPair>> {
         if let Some(r) = self.non_minimal.get(&id) {
             return r.clone();
         }
-        let r = crate::forms::non_minimal_applies(e, f, &self.config.budget).map(std::rc::Rc::new);
+        let budget = &self.config.budget;
+        let key = crate::session::ShapeKey::new(self.text_of(e), &f.reachable, budget);
+        let r = self.cache.non_minimal.get_or(key, || {
+            crate::forms::non_minimal_applies(e, f, budget).map(std::sync::Arc::new)
+        });
         self.non_minimal.insert(id, r.clone());
         r
+    }
+
+    /// The redundant parts and literals of a two-level expression, kept for
+    /// the next analysis under the expression's content.
+    pub(crate) fn redundancy(
+        &mut self,
+        e: &implica_syntax::ast::Expr,
+        t: &crate::forms::TwoLevel,
+        f: &crate::forms::ExprFunction,
+    ) -> std::sync::Arc<crate::forms::Redundancy> {
+        let key = crate::session::ShapeKey::new(self.text_of(e), &f.reachable, &self.config.budget);
+        self.cache
+            .redundancy
+            .get_or(key, || std::sync::Arc::new(crate::forms::redundancy(t, f)))
+    }
+
+    /// The source text of an expression (empty if its span does not fit).
+    fn text_of(&self, e: &implica_syntax::ast::Expr) -> &'a str {
+        let src: &'a str = self.src;
+        src.get(e.span.start..e.span.end).unwrap_or("")
     }
 }
 

@@ -29,7 +29,7 @@
 //! Default severity: warning.
 
 use super::{Ctx, Rule};
-use crate::forms::{Shape, operand_removal, redundancy};
+use crate::forms::{Shape, operand_removal};
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 
 pub const RULE: Rule = Rule {
@@ -45,7 +45,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let Some((f, t)) = cx.redundancy_target(id, e) else {
             continue;
         };
-        let r = redundancy(&t, &f);
+        let r = cx.redundancy(e, &t, &f);
         for &(i, l) in &r.literals {
             let part = &t.parts[i];
             let (Some(inner), lit) = (part.inner, &part.literals[l]) else {

@@ -35,7 +35,7 @@
 //! Default severity: warning.
 
 use super::{Ctx, Rule};
-use crate::forms::{Shape, operand_removal, redundancy};
+use crate::forms::{Shape, operand_removal};
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 
 pub const RULE: Rule = Rule {
@@ -52,7 +52,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
             continue;
         };
         let Some(outer) = t.outer else { continue };
-        let r = redundancy(&t, &f);
+        let r = cx.redundancy(e, &t, &f);
         let what = match t.shape {
             Shape::Sum => "term",
             Shape::Product => "factor",

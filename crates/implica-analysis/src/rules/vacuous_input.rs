@@ -63,12 +63,12 @@
 
 use super::constant_signal::{WORK_PER_SIGNAL, constants, never_notes};
 use super::{Ctx, Rule};
+use crate::hash::FastMap;
 use crate::model::{Body, Model, SignalId, SignalKind};
 use crate::{Diagnostic, Related, Severity};
 use implica_logic::{BddRef, Effort, Interrupted};
 use implica_syntax::Span;
 use implica_syntax::ast::Expr;
-use std::collections::HashMap;
 
 pub const RULE: Rule = Rule {
     name: "vacuous-input",
@@ -95,11 +95,11 @@ impl Dependence {
 
 /// How signals depend on inputs, worked out on demand and kept.
 struct Deps {
-    memo: HashMap<(SignalId, usize), Option<Dependence>>,
-    support: HashMap<SignalId, Vec<usize>>,
+    memo: FastMap<(SignalId, usize), Option<Dependence>>,
+    support: FastMap<SignalId, Vec<usize>>,
     /// Per signal: the combinations impossible whatever the inputs it does
     /// not read.
-    impossible: HashMap<SignalId, Option<BddRef>>,
+    impossible: FastMap<SignalId, Option<BddRef>>,
 }
 
 impl Deps {
@@ -235,9 +235,9 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let m = cx.model;
     let n = m.signals.len();
     let mut deps = Deps {
-        memo: HashMap::new(),
-        support: HashMap::new(),
-        impossible: HashMap::new(),
+        memo: Default::default(),
+        support: Default::default(),
+        impossible: Default::default(),
     };
     // Findings by input.
     let mut by_input: Vec<Vec<Finding>> = (0..m.inputs.len()).map(|_| Vec::new()).collect();
