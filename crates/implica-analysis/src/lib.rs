@@ -17,6 +17,7 @@ mod forms;
 pub mod functions;
 pub mod minimal;
 pub mod model;
+pub mod refactors;
 pub mod rules;
 pub mod suppress;
 
