@@ -541,6 +541,30 @@ fn no_expression_for_an_expression_or_a_broken_table() {
     assert!(at(broken, "table").is_empty());
 }
 
+/// The narrowing proof accepts a pick within the freedom and refuses a
+/// change of a fixed value or a widening.
+#[test]
+fn the_narrowing_proof_refuses_what_the_specification_forbids() {
+    let src = "input a, b\noutput y, z\ny = on(1) dc(3) over (a, b)\nz = y | a\n";
+    let rhs = src.find("on(").unwrap()..src.find("\nz").unwrap();
+    let with = |text: &str| implica_analysis::Fix {
+        title: String::new(),
+        applicability: Applicability::NeedsReview,
+        edits: vec![implica_analysis::Edit {
+            span: Span::new(rhs.start, rhs.end),
+            new_text: text.to_string(),
+        }],
+    };
+    assert!(fixes::verify_narrowing(src, &with("!a & b")).is_ok());
+    assert!(fixes::verify_narrowing(src, &with("b")).is_ok());
+    // Exact proofs refuse both picks: the freedom is gone.
+    assert!(fixes::verify(src, &with("b")).is_err());
+    let flipped = fixes::verify_narrowing(src, &with("a & b")).unwrap_err();
+    assert!(flipped.contains("`y`"), "{flipped}");
+    let wider = fixes::verify_narrowing(src, &with("on(1) dc(2, 3) over (a, b)")).unwrap_err();
+    assert!(wider.contains("`y`"), "{wider}");
+}
+
 // ---------------------------------------------------------------------------
 // NAND and NOR only.
 
