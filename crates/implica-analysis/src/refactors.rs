@@ -489,8 +489,9 @@ fn in_gate_form(e: &Expr, kind: GateKind) -> bool {
     true
 }
 
-/// The network as Implica text. Each entry: the text, and whether it is a
-/// two-input gate (which needs parentheses as an operand).
+/// The network as Implica text, built in gate order (a gate reads only
+/// earlier ones), each gate's text kept with whether it is a two-input
+/// gate, which needs parentheses wherever it is an operand.
 fn gate_text(net: &GateNetwork, names: &[SmolStr], kind: GateKind) -> String {
     use implica_logic::Signal as Wire;
     let (word, op) = match kind {
