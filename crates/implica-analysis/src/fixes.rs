@@ -451,6 +451,97 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
     Ok(after)
 }
 
+/// Whether applying `fix` to `src` only narrows freedom: the text still
+/// parses (with no more syntax errors than before), every output is still
+/// there, the `never` combinations are the same, and on every combination
+/// that can occur each signal's new interval lies inside its old one (where
+/// it was surely 1 it still is, and where it may now be 1 it could be
+/// before), signals matched by name. This is the proof of a rewrite that
+/// settles don't-cares, such as a table minimized into an expression: any
+/// value the new text allows, the old text allowed too, so no reader can
+/// see a value the specification forbade. [`verify`] is the stricter proof
+/// for rewrites that must keep the freedom as well.
+pub fn verify_narrowing(src: &str, fix: &Fix) -> Result<String, String> {
+    let after = apply(src, &fix.edits)?;
+    let (old_file, old_errors) = implica_syntax::parse(src);
+    let (new_file, new_errors) = implica_syntax::parse(&after);
+    if new_errors.len() > old_errors.len() {
+        return Err(format!(
+            "the new text does not parse: {}",
+            new_errors
+                .first()
+                .map_or(String::new(), |e| e.message.clone())
+        ));
+    }
+    let (old, new) = (Model::build(&old_file), Model::build(&new_file));
+    let (Ok(fo), Ok(mut fnew)) = (
+        Functions::compute(&old, DEFAULT_WORK_PER_DEFINITION, None),
+        Functions::compute(&new, DEFAULT_WORK_PER_DEFINITION, None),
+    ) else {
+        return Err("the analysis was cancelled".to_string());
+    };
+    let old_to_new: Vec<Option<usize>> = old
+        .inputs
+        .iter()
+        .map(|&s| {
+            new.signal(&old.signals[s].name)
+                .and_then(|t| new.signals[t].input_index)
+        })
+        .collect();
+    let rename = |v: usize| old_to_new.get(v).copied().flatten();
+    let mut effort = Effort::new(50_000_000);
+    let budget = |what: &str| format!("{what} could not be compared within the budget");
+    let moved = fnew
+        .bdd
+        .transfer(&fo.bdd, fo.impossible, &rename, &mut effort);
+    if !matches!(moved, Ok(Some(m)) if m == fnew.impossible) {
+        return Err("the impossible inputs (`never`) would change".to_string());
+    }
+    let possible = fnew
+        .bdd
+        .not(fnew.impossible, &mut effort)
+        .map_err(|_| budget("the possible inputs"))?;
+    for (s, sig) in old.signals.iter().enumerate() {
+        let Some(t) = counterpart(&old, &new, s)? else {
+            continue;
+        };
+        let what = format!("`{}`", sig.name);
+        match (fo.value(s), fnew.value(t)) {
+            (Ok(a), Ok(b)) => {
+                let mut moved =
+                    |f: BddRef| match fnew.bdd.transfer(&fo.bdd, f, &rename, &mut effort) {
+                        Ok(Some(m)) => Ok(m),
+                        Ok(None) => Err(format!("{what} reads an input the change removes")),
+                        Err(_) => Err(budget(&what)),
+                    };
+                let (old_lower, old_upper) = (moved(a.lower)?, moved(a.upper)?);
+                // Each must be empty where inputs can occur: a sure 1 lost,
+                // and a possible 1 gained.
+                for (inside, outside, how) in [
+                    (old_lower, b.lower, "would lose a value it must have"),
+                    (b.upper, old_upper, "would take a value it must not"),
+                ] {
+                    let escaped = (|| {
+                        let not_outside = fnew.bdd.not(outside, &mut effort)?;
+                        let d = fnew.bdd.and(inside, not_outside, &mut effort)?;
+                        fnew.bdd.and(d, possible, &mut effort)
+                    })();
+                    match escaped {
+                        Ok(BddRef::FALSE) => {}
+                        Ok(_) => return Err(format!("{what} {how}")),
+                        Err(_) => return Err(budget(&what)),
+                    }
+                }
+            }
+            (Ok(_), Err(_)) => {
+                return Err(format!("{what} would no longer have a function"));
+            }
+            (Err(_), _) => {}
+        }
+    }
+    Ok(after)
+}
+
 /// The result of [`fix_all`].
 #[derive(Debug, Clone)]
 pub struct FixAll {

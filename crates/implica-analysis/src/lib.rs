@@ -18,6 +18,7 @@ pub mod functions;
 mod hash;
 pub mod minimal;
 pub mod model;
+pub mod refactors;
 pub mod rules;
 pub mod session;
 pub mod suppress;
