@@ -54,6 +54,62 @@ fn counterpart(old: &Model, new: &Model, s: usize) -> Result<Option<usize>, Stri
     }
 }
 
+/// The statement (by index) whose span holds `span`; statements are in
+/// source order and do not overlap.
+fn item_at(model: &Model, span: implica_syntax::Span) -> Option<usize> {
+    let items = &model.file.items;
+    let i = items.partition_point(|it| it.span.end < span.end);
+    let it = items.get(i)?;
+    (it.span.start <= span.start && span.end <= it.span.end).then_some(i)
+}
+
+/// What the proof of a rewrite of one expression depends on: the statement's
+/// text, the edits within it, the functions of the signals it reads and its
+/// own (in the session's BDD manager), and the impossible combinations.
+#[derive(PartialEq, Eq, Hash)]
+pub(crate) struct ProofKey {
+    text: Box<str>,
+    edits: Vec<(usize, usize, String)>,
+    values: Vec<(implica_syntax::ast::SmolStr, Option<BddRef>)>,
+    impossible: BddRef,
+}
+
+/// The key of [`verify_local`]'s proof of `fix`, when its edits lie in one
+/// definition statement.
+fn proof_key(model: &Model, functions: &Functions, src: &str, fix: &Fix) -> Option<ProofKey> {
+    let first = fix.edits.first()?;
+    let index = item_at(model, first.span)?;
+    let item = &model.file.items[index];
+    if !fix
+        .edits
+        .iter()
+        .all(|e| item.span.start <= e.span.start && e.span.end <= item.span.end)
+    {
+        return None;
+    }
+    let def = model.definitions.iter().find(|d| d.item == index)?;
+    let value = |s: usize| functions.value(s).ok().map(|k| k.full);
+    let mut values: Vec<_> = def
+        .reads
+        .iter()
+        .map(|&r| (model.signals[r].name.clone(), value(r)))
+        .collect();
+    values.push((model.signals[def.signal].name.clone(), value(def.signal)));
+    Some(ProofKey {
+        text: src.get(item.span.start..item.span.end)?.into(),
+        edits: fix
+            .edits
+            .iter()
+            .map(|e| {
+                let base = item.span.start;
+                (e.span.start - base, e.span.end - base, e.new_text.clone())
+            })
+            .collect(),
+        values,
+        impossible: functions.impossible,
+    })
+}
+
 /// The proof of a fix that rewrites the right-hand side of one expression
 /// definition: the new expression must compute the same function (where
 /// inputs can occur) as the old, over the same signals; then no reader can
@@ -66,11 +122,7 @@ fn verify_local(
 ) -> Option<Result<(), String>> {
     use implica_syntax::ast::{ItemKind, Rhs};
     let first = fix.edits.first()?;
-    let item = model
-        .file
-        .items
-        .iter()
-        .find(|it| it.span.start <= first.span.start && first.span.end <= it.span.end)?;
+    let item = &model.file.items[item_at(model, first.span)?];
     let ItemKind::Define(old_def) = &item.kind else {
         return None;
     };
@@ -262,8 +314,15 @@ pub(crate) fn prove_in(
     src: &str,
     syntax_errors: usize,
     fix: &Fix,
+    cache: &mut crate::session::Cache,
 ) -> Result<(), String> {
-    if let Some(r) = verify_local(model, functions, src, fix) {
+    let local = match proof_key(model, functions, src, fix) {
+        Some(key) => cache
+            .proofs
+            .get_or(key, || verify_local(model, functions, src, fix)),
+        None => verify_local(model, functions, src, fix),
+    };
+    if let Some(r) = local {
         return r;
     }
     if let Some(r) = verify_unread_inputs(model, src, fix) {

@@ -208,7 +208,7 @@ fn run_rules(
             return None;
         }
         d.fixes.retain(|fix| {
-            match fixes::prove_in(model, &mut functions, src, syntax_errors, fix) {
+            match fixes::prove_in(model, &mut functions, src, syntax_errors, fix, cache) {
                 Ok(_) => true,
                 Err(why) => {
                     internal_errors.push(format!(

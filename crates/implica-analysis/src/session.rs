@@ -130,6 +130,11 @@ pub(crate) struct Cache {
     /// Expressions over their names. Keyed by functions of the session's
     /// manager: emptied when the manager is built afresh.
     pub expr_functions: Memo<ValueKey, Option<Arc<crate::forms::ExprFunction>>>,
+    /// Proofs of fixes that rewrite one expression (`None`: not such a fix).
+    /// Keyed by functions, as `expr_functions`.
+    pub proofs: Memo<crate::fixes::ProofKey, Option<Result<(), String>>>,
+    /// The variables each function depends on. Keyed by functions.
+    pub supports: Memo<BddRef, Arc<[usize]>>,
 }
 
 impl Cache {
@@ -137,11 +142,15 @@ impl Cache {
         self.non_minimal.age();
         self.redundancy.age();
         self.expr_functions.age();
+        self.proofs.age();
+        self.supports.age();
     }
 
     /// Forgets what is keyed by the functions of a manager no longer used.
     fn new_manager(&mut self) {
         self.expr_functions = Memo::default();
+        self.proofs = Memo::default();
+        self.supports = Memo::default();
     }
 }
 

@@ -127,7 +127,12 @@ mod common;
 
 #[test]
 fn edits_of_a_generated_specification() {
-    run(&common::spec(40, false), 30, 0x00DD_BA11, &Config::default());
+    run(
+        &common::spec(40, false),
+        30,
+        0x00DD_BA11,
+        &Config::default(),
+    );
 }
 
 /// Edits that change the inputs (declaring, removing, reordering) make the

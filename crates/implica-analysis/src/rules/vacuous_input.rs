@@ -125,9 +125,10 @@ impl Deps {
         let k = cx.functions.value(s).ok()?;
         let support = self.support.entry(s).or_insert_with(|| {
             let bdd = &cx.functions.bdd;
-            let mut v = bdd.support(k.lower);
+            let mut of = |f: BddRef| cx.cache.supports.get_or(f, || bdd.support(f).into());
+            let mut v = of(k.lower).to_vec();
             if k.upper != k.lower {
-                v.extend(bdd.support(k.upper));
+                v.extend_from_slice(&of(k.upper));
             }
             v
         });
