@@ -126,7 +126,7 @@ pub(crate) struct Cache {
     /// Whether `non-minimal` reports an expression, with its minimal forms.
     pub non_minimal: Memo<ShapeKey, Option<Arc<MinimalPair>>>,
     /// The redundant parts and literals of a two-level expression.
-    pub redundancy: Memo<ShapeKey, Arc<crate::forms::Redundancy>>,
+    pub redundancy: Memo<ShapeKey, Option<Arc<crate::forms::Redundancy>>>,
     /// Expressions over their names. Keyed by functions of the session's
     /// manager: emptied when the manager is built afresh.
     pub expr_functions: Memo<ValueKey, Option<Arc<crate::forms::ExprFunction>>>,

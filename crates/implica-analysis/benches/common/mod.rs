@@ -54,3 +54,19 @@ pub fn spec(signals: usize, clean: bool) -> String {
     }
     out
 }
+
+/// `src` with one character changed in the middle signal's definition: the
+/// last digit of the first input name on its line, moved to the next digit.
+#[allow(dead_code)] // not every user of this module edits
+pub fn edit_one_character(src: &str) -> String {
+    let mid = src.len() / 2;
+    let line = mid + src[mid..].find("\nout_").expect("a definition line") + 1;
+    let name = line + src[line..].find("in_").expect("an input name") + 4;
+    let mut bytes = src.as_bytes().to_vec();
+    bytes[name] = if bytes[name] == b'9' {
+        b'0'
+    } else {
+        bytes[name] + 1
+    };
+    String::from_utf8(bytes).expect("an ASCII digit replaced")
+}

@@ -176,23 +176,29 @@ impl<'a> Ctx<'a, '_> {
         f
     }
 
-    /// The expression of definition `id` as a two-level form over its
-    /// names, for the redundancy rules: `None` when it is not one, or when
-    /// `non-minimal` reports it (with a fix that goes further).
-    pub(crate) fn redundancy_target<'e>(
+    /// What can be dropped from definition `id`'s expression, with the
+    /// expression as a function of its names, for the redundancy rules:
+    /// `None` when it is not a two-level form, or when `non-minimal`
+    /// reports it (with a fix that goes further). Kept for the next
+    /// analysis under the expression's content.
+    pub(crate) fn redundancy_target(
         &mut self,
         id: usize,
-        e: &'e implica_syntax::ast::Expr,
+        e: &implica_syntax::ast::Expr,
     ) -> Option<(
         std::sync::Arc<crate::forms::ExprFunction>,
-        crate::forms::TwoLevel<'e>,
+        std::sync::Arc<crate::forms::Redundancy>,
     )> {
         let f = self.expr_function(id, e)?;
         if self.non_minimal(id, e, &f).is_some() {
             return None;
         }
-        let t = crate::forms::two_level(e, &f.names)?;
-        Some((f, t))
+        let key = crate::session::ShapeKey::new(self.text_of(e), &f.reachable, &self.config.budget);
+        let r = self.cache.redundancy.get_or(key, || {
+            let t = crate::forms::two_level(e, &f.names)?;
+            Some(std::sync::Arc::new(crate::forms::redundancy(&t, &f)))
+        })?;
+        Some((f, r))
     }
 
     /// [`crate::forms::non_minimal_applies`] for definition `id`, once, and
@@ -213,20 +219,6 @@ impl<'a> Ctx<'a, '_> {
         });
         self.non_minimal.insert(id, r.clone());
         r
-    }
-
-    /// The redundant parts and literals of a two-level expression, kept for
-    /// the next analysis under the expression's content.
-    pub(crate) fn redundancy(
-        &mut self,
-        e: &implica_syntax::ast::Expr,
-        t: &crate::forms::TwoLevel,
-        f: &crate::forms::ExprFunction,
-    ) -> std::sync::Arc<crate::forms::Redundancy> {
-        let key = crate::session::ShapeKey::new(self.text_of(e), &f.reachable, &self.config.budget);
-        self.cache
-            .redundancy
-            .get_or(key, || std::sync::Arc::new(crate::forms::redundancy(t, f)))
     }
 
     /// The source text of an expression (empty if its span does not fit).

@@ -35,7 +35,7 @@
 //! Default severity: warning.
 
 use super::{Ctx, Rule};
-use crate::forms::{Shape, operand_removal};
+use crate::forms::{Shape, operand_removal, two_level};
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 
 pub const RULE: Rule = Rule {
@@ -48,11 +48,16 @@ pub const RULE: Rule = Rule {
 pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     let m = cx.model;
     for (id, def, e) in super::expression_definitions(m) {
-        let Some((f, t)) = cx.redundancy_target(id, e) else {
+        let Some((f, r)) = cx.redundancy_target(id, e) else {
+            continue;
+        };
+        if r.parts.is_empty() {
+            continue;
+        }
+        let Some(t) = two_level(e, &f.names) else {
             continue;
         };
         let Some(outer) = t.outer else { continue };
-        let r = cx.redundancy(e, &t, &f);
         let what = match t.shape {
             Shape::Sum => "term",
             Shape::Product => "factor",

@@ -60,7 +60,7 @@ pub const RULE: Rule = Rule {
 };
 
 pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
-    if cx.has_syntax_errors {
+    if cx.has_syntax_errors || cx.model.never.is_empty() {
         return;
     }
     let m = cx.model;
@@ -114,8 +114,9 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     }
     // The input sets through which signals and checks see the constraints.
     let mut readers: Vec<Vec<usize>> = Vec::new();
+    let mut known = crate::hash::FastSet::default();
     let mut add = |r: Vec<usize>| {
-        if !readers.contains(&r) {
+        if known.insert(r.clone()) {
             readers.push(r);
         }
     };
