@@ -117,6 +117,36 @@ impl Config {
         }
     }
 
+    /// The configuration for one document: this one, with the document's
+    /// file directives (`# implica: enable RULE` / `disable RULE`) applied
+    /// in source order. An enabled rule keeps the severity set here, or
+    /// takes its default; names that are not rules are left to
+    /// `unknown-rule`, and `syntax-error` cannot be turned off.
+    pub fn for_file(&self, file: &implica_syntax::ast::SourceFile) -> std::borrow::Cow<'_, Config> {
+        let directives = crate::suppress::directives(file);
+        if directives.is_empty() {
+            return std::borrow::Cow::Borrowed(self);
+        }
+        let mut c = self.clone();
+        for d in directives {
+            for (name, _) in &d.rules {
+                let Some(rule) = rules::find(name) else {
+                    continue;
+                };
+                if rule.name == "syntax-error" {
+                    continue;
+                }
+                let severity = if d.enable {
+                    Some(self.severity(rule.name).unwrap_or(rule.default_severity))
+                } else {
+                    None
+                };
+                c.severities.insert(rule.name, severity);
+            }
+        }
+        std::borrow::Cow::Owned(c)
+    }
+
     /// Reads a configuration text; what cannot be read is reported and
     /// left at its default.
     pub fn parse(text: &str) -> (Config, Vec<ConfigError>) {

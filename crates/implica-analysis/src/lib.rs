@@ -173,6 +173,7 @@ fn run_rules(
     cancel: Option<&dyn Fn() -> bool>,
 ) -> Option<(Analysis, functions::Functions)> {
     let stop = || cancel.is_some_and(|c| c());
+    let config = &*config.for_file(file);
     let mut diagnostics = syntax_only(errors).diagnostics;
     let syntax_errors = diagnostics.len();
     let mut cx = rules::Ctx {

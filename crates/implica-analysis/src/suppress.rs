@@ -1,7 +1,15 @@
-//! Suppression comments: `# implica: quiet RULE, RULE` at the end of a
-//! statement's (or table row's) line, or on the line right above it,
-//! silences those rules for that statement or row. Text after ` -- ` is a
-//! reason, for the reader.
+//! Comments that steer the checks.
+//!
+//! - Suppression: `# implica: quiet RULE, RULE` at the end of a statement's
+//!   (or table row's) line, or on the line right above it, silences those
+//!   rules for that statement or row.
+//! - File directives: `# implica: enable RULE, RULE` and
+//!   `# implica: disable RULE, RULE`, anywhere in the file, turn rules on
+//!   (at their default severity, or the project's) or off for the whole
+//!   file, over the project configuration; of two directives naming one
+//!   rule, the later counts.
+//!
+//! Text after ` -- ` is a reason, for the reader.
 
 use implica_syntax::Span;
 use implica_syntax::ast::{Comment, ItemKind, SourceFile, Trivia};
@@ -16,12 +24,34 @@ pub(crate) struct Quiet {
     pub rules: Vec<(String, Span)>,
 }
 
+/// The marker of a directive that turns rules on for the file.
+pub const ENABLE: &str = "implica: enable";
+
+/// The marker of a directive that turns rules off for the file.
+pub const DISABLE: &str = "implica: disable";
+
+/// A file directive: rules turned on (`enable`) or off, each name with its
+/// place in the comment.
+pub(crate) struct Directive {
+    pub enable: bool,
+    pub rules: Vec<(String, Span)>,
+}
+
 /// The rule names of one comment, if it is a suppression comment.
 fn parse(c: &Comment) -> Option<Vec<(String, Span)>> {
+    parse_marked(c, MARKER)
+}
+
+/// The rule names after `marker` in a comment that starts with it.
+fn parse_marked(c: &Comment, marker: &str) -> Option<Vec<(String, Span)>> {
     let body = c.text.strip_prefix('#')?;
     let lead = body.len() - body.trim_start().len();
-    let rest = body.trim_start().strip_prefix(MARKER)?;
-    let offset = c.span.start + 1 + lead + MARKER.len();
+    let rest = body.trim_start().strip_prefix(marker)?;
+    // `implica: enabled` is not the directive.
+    if !(rest.is_empty() || rest.starts_with(char::is_whitespace)) {
+        return None;
+    }
+    let offset = c.span.start + 1 + lead + marker.len();
     let list = rest.split(" -- ").next().unwrap_or("");
     let mut out = Vec::new();
     let mut pos = 0;
@@ -74,4 +104,44 @@ pub(crate) fn quieted(quiet: &[Quiet], rule: &str, span: Span) -> bool {
             && span.start <= q.span.end
             && q.rules.iter().any(|(r, _)| r == rule)
     })
+}
+
+/// Every comment of a document, in source order.
+fn comments(file: &SourceFile) -> Vec<&Comment> {
+    fn of<'a>(t: &'a Trivia, out: &mut Vec<&'a Comment>) {
+        out.extend(t.leading().iter().map(|(_, c)| c));
+        out.extend(t.interior());
+        out.extend(t.trailing());
+    }
+    let mut out = Vec::new();
+    for item in &file.items {
+        of(&item.trivia, &mut out);
+        if let ItemKind::Table(t) | ItemKind::Expect(t) = &item.kind {
+            for row in &t.rows {
+                of(&row.trivia, &mut out);
+            }
+        }
+    }
+    out.extend(file.trailing_comments.iter().map(|(_, c)| c));
+    out.sort_by_key(|c| c.span.start);
+    out
+}
+
+/// The file directives of a document, in source order.
+pub(crate) fn directives(file: &SourceFile) -> Vec<Directive> {
+    comments(file)
+        .into_iter()
+        .filter_map(|c| {
+            if let Some(rules) = parse_marked(c, ENABLE) {
+                return Some(Directive {
+                    enable: true,
+                    rules,
+                });
+            }
+            parse_marked(c, DISABLE).map(|rules| Directive {
+                enable: false,
+                rules,
+            })
+        })
+        .collect()
 }

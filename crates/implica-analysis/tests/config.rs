@@ -106,3 +106,99 @@ fn the_file_is_found_by_walking_up() {
     std::fs::write(dir.path().join("implica.toml"), "").unwrap();
     assert_eq!(Config::find(&deep), Some(dir.path().join("implica.toml")));
 }
+
+/// A file turns the hazard rule on for itself, over the project's default,
+/// with a directive on a line of its own; and turns a rule off the same way.
+#[test]
+fn file_directives_enable_and_disable_rules_for_their_file() {
+    let mux = "input sel, a, b\noutput y\ny = sel & a | !sel & b\n";
+    let on =
+        format!("# implica: enable static-hazard -- a glitch here reaches the door motor\n{mux}");
+    assert!(rules_of(mux, &Config::default()).is_empty());
+    assert_eq!(
+        rules_of(&on, &Config::default()),
+        [("static-hazard", Severity::Warning)]
+    );
+    // The project's severity for the rule is kept when a file enables it.
+    let (config, errors) =
+        Config::parse("[rules]\nstatic-hazard = \"off\"\nredundant-term = \"error\"\n");
+    assert!(errors.is_empty());
+    assert_eq!(
+        rules_of(&on, &config),
+        [("static-hazard", Severity::Warning)]
+    );
+    let (config, _) = Config::parse("[rules]\nstatic-hazard = \"error\"\n");
+    assert_eq!(
+        rules_of(&format!("{mux}# implica: enable static-hazard\n"), &config),
+        [("static-hazard", Severity::Error)]
+    );
+    // With the rule on, the consensus term is needed, not redundant.
+    let with_consensus = "# implica: enable static-hazard\ninput sel, a, b\noutput y\ny = sel & a | !sel & b | a & b\n";
+    assert!(rules_of(with_consensus, &Config::default()).is_empty());
+
+    // Off for the file, wherever the directive stands; the later of two wins.
+    let off = format!("{SRC}# implica: disable redundant-term\n");
+    assert!(rules_of(&off, &Config::default()).is_empty());
+    let (config, _) = Config::parse("[rules]\nredundant-term = \"error\"\n");
+    assert!(rules_of(&off, &config).is_empty());
+    let both =
+        format!("# implica: disable redundant-term\n{SRC}# implica: enable redundant-term\n");
+    assert_eq!(
+        rules_of(&both, &Config::default()),
+        [("redundant-term", Severity::Warning)]
+    );
+    // The configuration for a file says the same as its analysis.
+    let (file, _) = implica_syntax::parse(&on);
+    assert!(
+        Config::default()
+            .for_file(&file)
+            .severity("static-hazard")
+            .is_some()
+    );
+    let (file, _) = implica_syntax::parse(mux);
+    assert!(
+        Config::default()
+            .for_file(&file)
+            .severity("static-hazard")
+            .is_none()
+    );
+}
+
+#[test]
+fn a_directive_naming_no_rule_is_reported_where_the_name_stands() {
+    let src = "# implica: enable static-hazards, unused-input\n# implica: disable syntax-error\ninput a\noutput y\ny = a\n";
+    let a = analyze(src);
+    let found: Vec<(&str, &str, &str)> = a
+        .diagnostics
+        .iter()
+        .map(|d| (d.rule, &src[d.span.start..d.span.end], d.message.as_str()))
+        .collect();
+    assert_eq!(
+        found,
+        [
+            (
+                "unknown-rule",
+                "static-hazards",
+                "there is no rule `static-hazards`"
+            ),
+            (
+                "unknown-rule",
+                "syntax-error",
+                "`syntax-error` cannot be disabled"
+            ),
+        ]
+    );
+    // The nearest name is offered, to review.
+    assert_eq!(a.diagnostics[0].fixes[0].edits[0].new_text, "static-hazard");
+    // A word that only begins like the marker is no directive.
+    let src = "# implica: enabled by the site survey\ninput a\noutput y\ny = a\n";
+    assert!(analyze(src).diagnostics.is_empty());
+    // syntax-error stays on.
+    let src = "# implica: disable syntax-error\ninput a\noutput y\ny = a &\n";
+    assert!(
+        analyze(src)
+            .diagnostics
+            .iter()
+            .any(|d| d.rule == "syntax-error")
+    );
+}

@@ -221,7 +221,11 @@ pub fn export(
         None => names::module_from(options.language, options.stem, &names),
     };
 
-    let hazard_free = options.config.severity("static-hazard").is_some();
+    // The file's own directives (`# implica: enable static-hazard`) count
+    // as they do for `implica check`.
+    let config = options.config.for_file(model.file);
+    let config = &*config;
+    let hazard_free = config.severity("static-hazard").is_some();
     let index = LineIndex::new(src);
     let line_of = |at: usize| index.line_col(src, at).line + 1;
     let mut assigns = Vec::new();
@@ -304,14 +308,8 @@ pub fn export(
                     Some((nets, _)) => nets.clone(),
                     None => local.inputs.clone(),
                 };
-                let (e, note) = pick_form(
-                    functions,
-                    local,
-                    options.config,
-                    hazard_free,
-                    &name,
-                    &mut effort,
-                )?;
+                let (e, note) =
+                    pick_form(functions, local, config, hazard_free, &name, &mut effort)?;
                 let note = match header {
                     Some((_, place)) => format!("{place}: {note}"),
                     None => note,

@@ -199,6 +199,17 @@ fn the_hazard_rule_turned_on_keeps_the_consensus_term() {
     let src = std::fs::read_to_string(root().join(path)).unwrap();
     let out = run(&["export", "--to", "verilog", "-"], &src);
     assert!(text(&out.stdout).contains("    assign y = s & a | ~s & b;\n"));
+    // A file directive turns the rule on for its own file, as the
+    // configuration does; the directive stays behind too.
+    let directed = format!("# implica: enable static-hazard\n{src}");
+    let out = run(&["export", "--to", "verilog", "-"], &directed);
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let v = text(&out.stdout);
+    assert!(
+        v.contains("    assign y = s & a | ~s & b | a & b;\n"),
+        "{v}"
+    );
+    assert!(!v.contains("enable"), "{v}");
 }
 
 #[cfg(unix)]

@@ -18,8 +18,9 @@
 //! y = sel & a | !sel & b   # glitch risk when `sel` changes with a = b = 1
 //! ```
 //!
-//! Off by default: turn it on in `implica.toml` (`static-hazard =
-//! "warning"` under `[rules]`). When it is on, `redundant-term` does not
+//! Off by default: turn it on for a project in `implica.toml`
+//! (`static-hazard = "warning"` under `[rules]`), or for one file with the
+//! comment line `# implica: enable static-hazard`. When it is on, `redundant-term` does not
 //! report the consensus terms that keep a sum of products hazard-free.
 //! Implica checks the Boolean structure only; whether a glitch matters
 //! depends on the circuit, and safety functions follow the applicable
