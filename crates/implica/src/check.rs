@@ -43,7 +43,7 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
         eprintln!("implica: {p}");
     }
     summary.unreadable += problems.len();
-    let mut json_diags: Vec<Value> = Vec::new();
+    let mut json = JsonStream::default();
     let mut sarif_results: Vec<Value> = Vec::new();
     let mut configs = crate::project::Configs::default();
     // Configurations are found on this thread (each directory once); the
@@ -77,7 +77,9 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
             OutputFormat::Human => print_human(&name, &text, &diags, false),
             OutputFormat::Json => {
                 let index = LineIndex::new(&text);
-                json_diags.extend(diags.iter().map(|d| to_json(&name, &text, &index, d)));
+                for d in &diags {
+                    json.push(&to_json(&name, &text, &index, d));
+                }
             }
             OutputFormat::Github => print_github(&name, &text, &diags),
             OutputFormat::Sarif => {
@@ -111,20 +113,14 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
                 serde_json::to_string_pretty(&sarif_log(sarif_results)).unwrap_or_default()
             );
         }
-        OutputFormat::Json => {
-            let doc = json!({
-                "diagnostics": json_diags,
-                "summary": {
-                    "files": summary.files,
-                    "errors": summary.errors,
-                    "warnings": summary.warnings,
-                    "infos": summary.infos,
-                    "hints": summary.hints,
-                    "unreadable": summary.unreadable,
-                },
-            });
-            println!("{}", serde_json::to_string_pretty(&doc).unwrap_or_default());
-        }
+        OutputFormat::Json => json.finish(&json!({
+            "files": summary.files,
+            "errors": summary.errors,
+            "warnings": summary.warnings,
+            "infos": summary.infos,
+            "hints": summary.hints,
+            "unreadable": summary.unreadable,
+        })),
     }
     if summary.unreadable > 0 || configs.errors > 0 {
         ExitCode::from(2)
@@ -132,6 +128,53 @@ pub fn run(paths: &[PathBuf], format: OutputFormat, deny_warnings: bool) -> Exit
         ExitCode::from(1)
     } else {
         ExitCode::SUCCESS
+    }
+}
+
+/// The JSON report, written as the files are analysed instead of held
+/// until the end: `{"diagnostics": [...], "summary": {...}}`, laid out
+/// exactly as `serde_json::to_string_pretty` lays out the whole document
+/// (two spaces a level; keys in order).
+#[derive(Default)]
+struct JsonStream {
+    started: bool,
+}
+
+impl JsonStream {
+    /// Appends one diagnostic to the `diagnostics` array.
+    fn push(&mut self, diagnostic: &Value) {
+        use std::io::Write;
+        let text = serde_json::to_string_pretty(diagnostic).unwrap_or_default();
+        let mut out = std::io::stdout().lock();
+        let lead = if self.started {
+            ",\n"
+        } else {
+            "{\n  \"diagnostics\": [\n"
+        };
+        self.started = true;
+        // JSON strings hold no raw line breaks: every line is a level of
+        // the layout and moves in by the array's depth.
+        let mut block = String::with_capacity(text.len() + text.len() / 8 + 32);
+        block.push_str(lead);
+        for (i, line) in text.lines().enumerate() {
+            if i > 0 {
+                block.push('\n');
+            }
+            block.push_str("    ");
+            block.push_str(line);
+        }
+        let _ = out.write_all(block.as_bytes());
+    }
+
+    /// Closes the array and writes the summary.
+    fn finish(self, summary: &Value) {
+        let text = serde_json::to_string_pretty(summary).unwrap_or_default();
+        let summary = text.replace('\n', "\n  ");
+        if self.started {
+            println!("\n  ],\n  \"summary\": {summary}\n}}");
+        } else {
+            println!("{{\n  \"diagnostics\": [],\n  \"summary\": {summary}\n}}");
+        }
     }
 }
 
@@ -423,10 +466,11 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
     } else {
         termcolor::ColorChoice::Never
     };
-    let stream = if to_stderr {
-        termcolor::StandardStream::stderr(choice)
+    // One write per file rather than one per line.
+    let mut stream = if to_stderr {
+        termcolor::BufferedStandardStream::stderr(choice)
     } else {
-        termcolor::StandardStream::stdout(choice)
+        termcolor::BufferedStandardStream::stdout(choice)
     };
     let config = term::Config::default();
     let index = LineIndex::new(text);
@@ -470,16 +514,17 @@ pub fn print_human(name: &str, text: &str, diags: &[Diagnostic], to_stderr: bool
             notes.push(format!("help: {help}"));
         }
         report = report.with_notes(notes);
-        let _ = term::emit_to_write_style(&mut stream.lock(), &config, &file, &report);
+        let _ = term::emit_to_write_style(&mut stream, &config, &file, &report);
     }
+    use std::io::Write;
     if diags.len() > MAX_SHOWN {
-        use std::io::Write;
         let _ = writeln!(
-            stream.lock(),
+            stream,
             "... and {} more in {name} (all of them: --format json)\n",
             diags.len() - MAX_SHOWN
         );
     }
+    let _ = stream.flush();
 }
 
 /// Diagnostics shown per file in human output.

@@ -497,3 +497,26 @@ fn many_files_are_reported_in_order() {
     assert_eq!(v["summary"]["files"], 24);
     assert!(String::from_utf8_lossy(&out.stderr).contains("missing.imp"));
 }
+
+/// The JSON report is written file by file as the analysis goes; it is still
+/// one document, laid out as a pretty-printer lays out the whole (serde_json's
+/// own printer is the reference), with and without diagnostics.
+#[test]
+fn the_streamed_json_report_is_one_pretty_document() {
+    let examples = root().join("examples");
+    let clean = tempfile::tempdir().unwrap();
+    temp_file(&clean, "ok.imp", b"input a\noutput y\ny = a\n");
+    for path in [examples.as_path(), clean.path()] {
+        let out = implica(&["check", "--format", "json", path.to_str().unwrap()]);
+        let text = String::from_utf8(out.stdout).unwrap();
+        let doc: Value = serde_json::from_str(&text).unwrap();
+        assert_eq!(text, serde_json::to_string_pretty(&doc).unwrap() + "\n");
+        let n = doc["diagnostics"].as_array().unwrap().len();
+        let s = &doc["summary"];
+        let counted: u64 = ["errors", "warnings", "infos", "hints"]
+            .iter()
+            .map(|k| s[k].as_u64().unwrap())
+            .sum();
+        assert_eq!(n as u64, counted, "{text}");
+    }
+}
