@@ -274,24 +274,7 @@ where
     })
 }
 
-type FastInput<'t, 'p, I> = chumsky::input::InputRef<'t, 'p, I, extra::Err<EmptyErr>>;
-
-/// The expression grammar of [`expr`], hand-written for the fast path. It
-/// accepts exactly the expressions [`expr`] accepts without error and builds
-/// the same tree; on anything else it fails, and the statement is parsed
-/// again with [`expr`], which describes the error. `parse_reference` parses
-/// with [`expr`] alone; tests and the fuzzer check that both give the same
-/// tree. It exists because it is several times faster than the combinator
-/// version (docs/benchmarks.md).
-pub(crate) fn fast_expr<'t, I>(
-    src: &'t str,
-) -> impl Parser<'t, I, Expr, extra::Err<EmptyErr>> + Clone
-where
-    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
-{
-    chumsky::primitive::custom(move |inp: &mut FastInput<'t, '_, I>| climb(src, inp, 1))
-}
-
+/// The operator a token stands for, and whether it is spelt as a word.
 fn binary_op(t: Tok) -> Option<(BinOp, bool)> {
     Some(match t {
         Tok::Amp => (BinOp::And, false),
@@ -308,92 +291,6 @@ fn binary_op(t: Tok) -> Option<(BinOp, bool)> {
         Tok::Implies => (BinOp::Implies, false),
         _ => return None,
     })
-}
-
-fn next_token<'t, I>(inp: &mut FastInput<'t, '_, I>) -> Option<(Tok, Span)>
-where
-    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
-{
-    let before = inp.cursor();
-    let t = inp.next()?;
-    Some((t, sp(inp.span_since(&before))))
-}
-
-/// Precedence climbing over operators of precedence `min` and above.
-fn climb<'t, I>(src: &'t str, inp: &mut FastInput<'t, '_, I>, min: u8) -> Result<Expr, EmptyErr>
-where
-    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
-{
-    let mut lhs = fast_unary(src, inp)?;
-    while let Some((op, _)) = inp.peek().and_then(binary_op) {
-        let level = op.precedence();
-        if level < min {
-            break;
-        }
-        let mut operands = Vec::with_capacity(2);
-        operands.push(lhs);
-        let mut ops = Vec::with_capacity(1);
-        while let Some((op, word)) = inp
-            .peek()
-            .and_then(binary_op)
-            .filter(|(o, _)| o.precedence() == level)
-        {
-            let (_, span) = next_token(inp).ok_or_else(EmptyErr::default)?;
-            ops.push(OpToken { op, word, span });
-            operands.push(climb(src, inp, level + 1)?);
-        }
-        if ops.len() > 1 && ops.iter().any(|o| !o.op.chains()) {
-            return Err(EmptyErr::default());
-        }
-        let span = operands[0].span.to(operands[operands.len() - 1].span);
-        lhs = Expr {
-            kind: ExprKind::Chain { operands, ops },
-            span,
-        };
-    }
-    Ok(lhs)
-}
-
-fn fast_unary<'t, I>(src: &'t str, inp: &mut FastInput<'t, '_, I>) -> Result<Expr, EmptyErr>
-where
-    I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
-{
-    let (tok, span) = next_token(inp).ok_or_else(EmptyErr::default)?;
-    let kind = match tok {
-        Tok::Bang | Tok::KwNot => {
-            let operand = fast_unary(src, inp)?;
-            return Ok(Expr {
-                span: span.to(operand.span),
-                kind: ExprKind::Not {
-                    word: tok == Tok::KwNot,
-                    operand: Box::new(operand),
-                },
-            });
-        }
-        Tok::Ident => ExprKind::Name(Name {
-            text: SmolStr::new(&src[span.range()]),
-            span,
-        }),
-        Tok::Number => match &src[span.range()] {
-            "0" => ExprKind::Const(false),
-            "1" => ExprKind::Const(true),
-            _ => return Err(EmptyErr::default()),
-        },
-        Tok::LParen => {
-            let inner = climb(src, inp, 1)?;
-            match next_token(inp) {
-                Some((Tok::RParen, end)) => {
-                    return Ok(Expr {
-                        kind: ExprKind::Paren(Box::new(inner)),
-                        span: span.to(end),
-                    });
-                }
-                _ => return Err(EmptyErr::default()),
-            }
-        }
-        _ => return Err(EmptyErr::default()),
-    };
-    Ok(Expr { kind, span })
 }
 
 fn number<'t, I, Er>(src: &'t str) -> impl Parser<'t, I, Number, extra::Err<Er>> + Clone
@@ -631,19 +528,14 @@ where
 }
 
 /// One statement, up to the end of its token chunk.
-///
-/// `expr` is the expression grammar to use: [`expr`], or [`fast_expr`] on the
-/// fast path.
-pub(crate) fn statement<'t, I, Er, X>(
+pub(crate) fn statement<'t, I, Er>(
     src: &'t str,
-    expr: X,
 ) -> impl Parser<'t, I, ItemKind, extra::Err<Er>> + Clone
 where
     I: ValueInput<'t, Token = Tok, Span = SimpleSpan>,
     Er: GrammarError<'t, I>,
-    X: Parser<'t, I, Expr, extra::Err<Er>> + Clone + 't,
 {
-    let expr = expr.boxed();
+    let expr = expr(src).boxed();
     let decl = select! { Tok::KwInput => true, Tok::KwOutput => false }
         .then(name_list(src).labelled("a signal name"))
         .map(|(is_input, names)| {
@@ -709,4 +601,166 @@ mod either {
         Right(R),
     }
     pub use Either::{Left, Right};
+}
+
+/// The commonest statements read straight off their tokens, without the
+/// combinators: declarations, `[let] name = expression`, `never` and
+/// `assert`. It accepts only what [`statement`] accepts without error and
+/// builds the same tree; on anything else (tables, term lists, test
+/// vectors, keywords used as names, any error) it returns `None` and the
+/// statement goes to the combinator grammar. The tests and the fuzzer
+/// compare [`crate::parse`] with `parse_reference`, which never takes this
+/// path.
+pub(crate) fn statement_direct(src: &str, toks: &[(Tok, SimpleSpan)]) -> Option<ItemKind> {
+    let mut c = Cursor { src, toks, at: 0 };
+    let kind = match c.peek()? {
+        Tok::KwInput | Tok::KwOutput => {
+            let is_input = c.next()?.0 == Tok::KwInput;
+            let mut names = Vec::new();
+            loop {
+                names.push(c.name()?);
+                if c.peek() != Some(Tok::Comma) {
+                    break;
+                }
+                c.next();
+                if c.peek().is_none() {
+                    break;
+                }
+            }
+            let decl = Decl { names };
+            if is_input {
+                ItemKind::Input(decl)
+            } else {
+                ItemKind::Output(decl)
+            }
+        }
+        Tok::KwNever => {
+            c.next();
+            ItemKind::Never(c.climb(1)?)
+        }
+        Tok::KwAssert => {
+            c.next();
+            ItemKind::Assert(c.climb(1)?)
+        }
+        Tok::KwLet | Tok::Ident => {
+            let let_span = if c.peek() == Some(Tok::KwLet) {
+                Some(c.next()?.1)
+            } else {
+                None
+            };
+            let target = c.name()?;
+            if c.next()?.0 != Tok::Assign {
+                return None;
+            }
+            ItemKind::Define(Define {
+                let_span,
+                target,
+                rhs: Rhs::Expr(c.climb(1)?),
+            })
+        }
+        _ => return None,
+    };
+    // Every token read, or the statement is not what it seemed.
+    (c.at == toks.len()).then_some(kind)
+}
+
+/// A position in one statement's tokens, for [`statement_direct`].
+struct Cursor<'s, 't> {
+    src: &'s str,
+    toks: &'t [(Tok, SimpleSpan)],
+    at: usize,
+}
+
+impl Cursor<'_, '_> {
+    fn peek(&self) -> Option<Tok> {
+        self.toks.get(self.at).map(|t| t.0)
+    }
+
+    fn next(&mut self) -> Option<(Tok, Span)> {
+        let &(t, s) = self.toks.get(self.at)?;
+        self.at += 1;
+        Some((t, sp(s)))
+    }
+
+    /// A plain signal name (a keyword there is left to the grammar, which
+    /// reports it).
+    fn name(&mut self) -> Option<Name> {
+        match self.next()? {
+            (Tok::Ident, span) => Some(Name {
+                text: SmolStr::new(&self.src[span.range()]),
+                span,
+            }),
+            _ => None,
+        }
+    }
+
+    /// Precedence climbing over operators of precedence `min` and above.
+    fn climb(&mut self, min: u8) -> Option<Expr> {
+        let mut lhs = self.unary()?;
+        while let Some((op, _)) = self.peek().and_then(binary_op) {
+            let level = op.precedence();
+            if level < min {
+                break;
+            }
+            let mut operands = Vec::with_capacity(2);
+            operands.push(lhs);
+            let mut ops = Vec::with_capacity(1);
+            while let Some((op, word)) = self
+                .peek()
+                .and_then(binary_op)
+                .filter(|(o, _)| o.precedence() == level)
+            {
+                let (_, span) = self.next()?;
+                ops.push(OpToken { op, word, span });
+                operands.push(self.climb(level + 1)?);
+            }
+            if ops.len() > 1 && ops.iter().any(|o| !o.op.chains()) {
+                return None;
+            }
+            let span = operands[0].span.to(operands[operands.len() - 1].span);
+            lhs = Expr {
+                kind: ExprKind::Chain { operands, ops },
+                span,
+            };
+        }
+        Some(lhs)
+    }
+
+    /// A name, constant, negation or parenthesised expression.
+    fn unary(&mut self) -> Option<Expr> {
+        let (tok, span) = self.next()?;
+        let kind = match tok {
+            Tok::Bang | Tok::KwNot => {
+                let operand = self.unary()?;
+                return Some(Expr {
+                    span: span.to(operand.span),
+                    kind: ExprKind::Not {
+                        word: tok == Tok::KwNot,
+                        operand: Box::new(operand),
+                    },
+                });
+            }
+            Tok::Ident => ExprKind::Name(Name {
+                text: SmolStr::new(&self.src[span.range()]),
+                span,
+            }),
+            Tok::Number => match &self.src[span.range()] {
+                "0" => ExprKind::Const(false),
+                "1" => ExprKind::Const(true),
+                _ => return None,
+            },
+            Tok::LParen => {
+                let inner = self.climb(1)?;
+                return match self.next()? {
+                    (Tok::RParen, end) => Some(Expr {
+                        kind: ExprKind::Paren(Box::new(inner)),
+                        span: span.to(end),
+                    }),
+                    _ => None,
+                };
+            }
+            _ => return None,
+        };
+        Some(Expr { kind, span })
+    }
 }

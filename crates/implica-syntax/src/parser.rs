@@ -29,9 +29,10 @@ pub fn parse(src: &str) -> (SourceFile, Vec<SyntaxError>) {
     parse_with(src, true)
 }
 
-/// Parses with the combinator grammar alone, without the hand-written fast
-/// path for expressions. It must give exactly what [`parse`] gives; tests
-/// and the fuzzer compare the two.
+/// Parses with the combinator grammar alone and its error reporting, without
+/// the fast paths (the direct reading of common statements, and the
+/// error-free first attempt). It must give exactly what [`parse`] gives;
+/// tests and the fuzzer compare the two.
 #[doc(hidden)]
 pub fn parse_reference(src: &str) -> (SourceFile, Vec<SyntaxError>) {
     parse_with(src, false)
@@ -45,8 +46,8 @@ fn parse_with(src: &str, fast_path: bool) -> (SourceFile, Vec<SyntaxError>) {
     let mut items = Vec::with_capacity(src.len() / 8 + 8);
     let comments = split_statements(src, |toks, chunks| {
         // Built per batch: the parsers borrow the batch's tokens.
-        let fast = grammar::statement::<_, EmptyErr, _>(src, grammar::fast_expr(src));
-        let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>, _>(src, grammar::expr(src));
+        let fast = grammar::statement::<_, EmptyErr>(src);
+        let rich = grammar::statement::<_, Rich<'_, Tok, SimpleSpan>>(src);
         for chunk in chunks {
             items.push(parse_statement(
                 src,
@@ -287,6 +288,15 @@ where
             related: Vec::new(),
         });
         return error_item;
+    }
+    if fast.is_some()
+        && let Some(kind) = grammar::statement_direct(src, toks)
+    {
+        return Item {
+            kind,
+            span,
+            trivia: Trivia::default(),
+        };
     }
     let eoi: SimpleSpan = (last_end..last_end).into();
     if let Some(Ok(kind)) = fast.map(|f| f.parse(toks.split_token_span(eoi)).into_result()) {
