@@ -176,24 +176,42 @@ struct PrimeSearch<'a> {
     budget: &'a Budget,
     primes: Vec<Implicant>,
     too_many: bool,
+    /// The child tables of each depth.
+    scratch: Vec<Scratch>,
+}
+
+/// One depth's tables of [`PrimeSearch::visit`].
+#[derive(Default)]
+struct Scratch {
+    care: Vec<u64>,
+    need: Vec<u64>,
+    high: Vec<u32>,
 }
 
 impl PrimeSearch<'_> {
     /// `care`: implicant table of `free`; `need`: whether each cube holds a
     /// required minterm; `bound_high`: the minterm bit of each packed bit of
-    /// the word index.
-    fn visit(&mut self, free: u32, care: &[u64], need: &[u64], bound_high: &[u32], next: usize) {
+    /// the word index. The child tables are built in `scratch[depth]`,
+    /// reused from one sibling to the next, so the search allocates only
+    /// when a depth is first reached.
+    fn visit(&mut self, free: u32, tables: (&[u64], &[u64], &[u32]), next: usize, depth: usize) {
+        let (care, need, bound_high) = tables;
         self.collect(free, care, need, bound_high);
         if self.too_many {
             return;
         }
+        if self.scratch.len() <= depth {
+            self.scratch.push(Scratch::default());
+        }
+        let mut buf = std::mem::take(&mut self.scratch[depth]);
         for b in next..self.vars {
-            let (c, n, h): (Vec<u64>, Vec<u64>, Vec<u32>) = if b < self.low {
-                (
-                    care.iter().map(|&w| w & swap_bits(w, b)).collect(),
-                    need.iter().map(|&w| w | swap_bits(w, b)).collect(),
-                    bound_high.to_vec(),
-                )
+            buf.care.clear();
+            buf.need.clear();
+            buf.high.clear();
+            if b < self.low {
+                buf.care.extend(care.iter().map(|&w| w & swap_bits(w, b)));
+                buf.need.extend(need.iter().map(|&w| w | swap_bits(w, b)));
+                buf.high.extend_from_slice(bound_high);
             } else {
                 let Some(p) = bound_high.iter().position(|&h| h as usize == b) else {
                     continue;
@@ -201,45 +219,49 @@ impl PrimeSearch<'_> {
                 let stride = 1usize << p;
                 let pair = |i: usize| ((i >> p) << (p + 1)) | (i & (stride - 1));
                 let half = care.len() / 2;
-                let mut h = bound_high.to_vec();
-                h.remove(p);
-                (
-                    (0..half)
-                        .map(|i| care[pair(i)] & care[pair(i) | stride])
-                        .collect(),
-                    (0..half)
-                        .map(|i| need[pair(i)] | need[pair(i) | stride])
-                        .collect(),
-                    h,
-                )
-            };
-            if c.iter().all(|&w| w == 0) {
+                buf.care
+                    .extend((0..half).map(|i| care[pair(i)] & care[pair(i) | stride]));
+                buf.need
+                    .extend((0..half).map(|i| need[pair(i)] | need[pair(i) | stride]));
+                buf.high.extend_from_slice(bound_high);
+                buf.high.remove(p);
+            }
+            if buf.care.iter().all(|&w| w == 0) {
                 continue;
             }
-            self.visit(free | 1 << b, &c, &n, &h, b + 1);
+            self.visit(
+                free | 1 << b,
+                (&buf.care, &buf.need, &buf.high),
+                b + 1,
+                depth + 1,
+            );
             if self.too_many {
-                return;
+                break;
             }
         }
+        self.scratch[depth] = buf;
     }
 
     fn collect(&mut self, free: u32, care: &[u64], need: &[u64], bound_high: &[u32]) {
         let low_free = free & ((1u32 << self.low) - 1);
         let mut representative = u64::MAX;
-        let mut bound_low = Vec::new();
+        let mut bound_low = [0usize; 6];
+        let mut bound_count = 0;
         for (b, &half) in LOW_HALF.iter().enumerate().take(self.low) {
             if low_free >> b & 1 == 1 {
                 representative &= half;
             } else {
-                bound_low.push(b);
+                bound_low[bound_count] = b;
+                bound_count += 1;
             }
         }
+        let bound_low = &bound_low[..bound_count];
         for (c, (&w, &r)) in care.iter().zip(need).enumerate() {
             if w == 0 {
                 continue;
             }
             let mut larger = 0u64;
-            for &b in &bound_low {
+            for &b in bound_low {
                 larger |= swap_bits(w, b);
             }
             for p in 0..bound_high.len() {
@@ -285,12 +307,13 @@ pub(crate) fn primes_of(
         budget,
         primes: Vec::new(),
         too_many: false,
+        scratch: Vec::new(),
     };
     let care = table_words(&on.or(dc));
     let need = table_words(&on.and_not(dc));
     let bound_high: Vec<u32> = (low as u32..vars as u32).collect();
     if care.iter().any(|&w| w != 0) {
-        search.visit(0, &care, &need, &bound_high, 0);
+        search.visit(0, (&care, &need, &bound_high), 0, 0);
     }
     if search.too_many {
         return Err(TooLarge {
