@@ -208,8 +208,13 @@ impl PrimeSearch<'_> {
             buf.care.clear();
             buf.need.clear();
             buf.high.clear();
+            // The implicant table first: most shapes have no implicant, and
+            // then the rest is not built.
             if b < self.low {
                 buf.care.extend(care.iter().map(|&w| w & swap_bits(w, b)));
+                if buf.care.iter().all(|&w| w == 0) {
+                    continue;
+                }
                 buf.need.extend(need.iter().map(|&w| w | swap_bits(w, b)));
                 buf.high.extend_from_slice(bound_high);
             } else {
@@ -221,13 +226,13 @@ impl PrimeSearch<'_> {
                 let half = care.len() / 2;
                 buf.care
                     .extend((0..half).map(|i| care[pair(i)] & care[pair(i) | stride]));
+                if buf.care.iter().all(|&w| w == 0) {
+                    continue;
+                }
                 buf.need
                     .extend((0..half).map(|i| need[pair(i)] | need[pair(i) | stride]));
                 buf.high.extend_from_slice(bound_high);
                 buf.high.remove(p);
-            }
-            if buf.care.iter().all(|&w| w == 0) {
-                continue;
             }
             self.visit(
                 free | 1 << b,
