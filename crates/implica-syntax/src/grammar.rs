@@ -603,12 +603,12 @@ mod either {
     pub use Either::{Left, Right};
 }
 
-/// The commonest statements read straight off their tokens, without the
-/// combinators: declarations, `[let] name = expression`, `never` and
-/// `assert`. It accepts only what [`statement`] accepts without error and
-/// builds the same tree; on anything else (tables, term lists, test
-/// vectors, keywords used as names, any error) it returns `None` and the
-/// statement goes to the combinator grammar. The tests and the fuzzer
+/// Statements read straight off their tokens, without the combinators:
+/// declarations, definitions (by expression or term list), tables, test
+/// vectors, `never` and `assert`. It accepts only what [`statement`]
+/// accepts without error and builds the same tree; on anything else
+/// (keywords used as names, any error) it returns `None` and the statement
+/// goes to the combinator grammar, which describes the error. The tests and the fuzzer
 /// compare [`crate::parse`] with `parse_reference`, which never takes this
 /// path.
 pub(crate) fn statement_direct(src: &str, toks: &[(Tok, SimpleSpan)]) -> Option<ItemKind> {
@@ -616,18 +616,7 @@ pub(crate) fn statement_direct(src: &str, toks: &[(Tok, SimpleSpan)]) -> Option<
     let kind = match c.peek()? {
         Tok::KwInput | Tok::KwOutput => {
             let is_input = c.next()?.0 == Tok::KwInput;
-            let mut names = Vec::new();
-            loop {
-                names.push(c.name()?);
-                if c.peek() != Some(Tok::Comma) {
-                    break;
-                }
-                c.next();
-                if c.peek().is_none() {
-                    break;
-                }
-            }
-            let decl = Decl { names };
+            let decl = Decl { names: c.names()? };
             if is_input {
                 ItemKind::Input(decl)
             } else {
@@ -642,6 +631,21 @@ pub(crate) fn statement_direct(src: &str, toks: &[(Tok, SimpleSpan)]) -> Option<
             c.next();
             ItemKind::Assert(c.climb(1)?)
         }
+        Tok::KwTable => {
+            c.next();
+            ItemKind::Table(Box::new(c.table(true)?))
+        }
+        Tok::KwExpect => {
+            c.next();
+            ItemKind::Expect(Box::new(c.table(false)?))
+        }
+        Tok::KwLet if c.toks.get(1).map(|t| t.0) == Some(Tok::KwTable) => {
+            let let_span = Some(c.next()?.1);
+            c.next();
+            let mut t = c.table(true)?;
+            t.let_span = let_span;
+            ItemKind::Table(Box::new(t))
+        }
         Tok::KwLet | Tok::Ident => {
             let let_span = if c.peek() == Some(Tok::KwLet) {
                 Some(c.next()?.1)
@@ -652,10 +656,14 @@ pub(crate) fn statement_direct(src: &str, toks: &[(Tok, SimpleSpan)]) -> Option<
             if c.next()?.0 != Tok::Assign {
                 return None;
             }
+            let rhs = match c.peek()? {
+                Tok::KwOn | Tok::KwOff | Tok::KwDc => Rhs::Terms(c.term_list()?),
+                _ => Rhs::Expr(c.climb(1)?),
+            };
             ItemKind::Define(Define {
                 let_span,
                 target,
-                rhs: Rhs::Expr(c.climb(1)?),
+                rhs,
             })
         }
         _ => return None,
@@ -680,6 +688,187 @@ impl Cursor<'_, '_> {
         let &(t, s) = self.toks.get(self.at)?;
         self.at += 1;
         Some((t, sp(s)))
+    }
+
+    /// The next token, when it is `kind`.
+    fn expect(&mut self, kind: Tok) -> Option<Span> {
+        match self.next()? {
+            (k, span) if k == kind => Some(span),
+            _ => None,
+        }
+    }
+
+    /// Names separated by commas, at least one, a trailing comma allowed.
+    fn names(&mut self) -> Option<Vec<Name>> {
+        let mut names = vec![self.name()?];
+        while self.peek() == Some(Tok::Comma) {
+            self.next();
+            if self.peek() != Some(Tok::Ident) {
+                break;
+            }
+            names.push(self.name()?);
+        }
+        Some(names)
+    }
+
+    /// A valid row number.
+    fn number(&mut self) -> Option<Number> {
+        let span = self.expect(Tok::Number)?;
+        let text = &self.src[span.range()];
+        Some(Number {
+            text: text.to_string(),
+            value: Some(parse_number(text)?),
+            span,
+        })
+    }
+
+    /// `on(...) dc(...) over (...)`, with the checks of [`term_list`]: one
+    /// of `on` and `off`, no list twice, row numbers that exist, ranges in
+    /// order.
+    fn term_list(&mut self) -> Option<TermList> {
+        let start = sp(self.toks.get(self.at)?.1);
+        let mut parts = Vec::new();
+        while let Some(kind) = self.peek().and_then(|k| match k {
+            Tok::KwOn => Some(TermKind::On),
+            Tok::KwOff => Some(TermKind::Off),
+            Tok::KwDc => Some(TermKind::Dc),
+            _ => None,
+        }) {
+            let (_, kw) = self.next()?;
+            self.expect(Tok::LParen)?;
+            let mut entries = Vec::new();
+            while self.peek() != Some(Tok::RParen) {
+                let a = self.number()?;
+                entries.push(if self.peek() == Some(Tok::DotDot) {
+                    self.next();
+                    TermEntry::Range(a, self.number()?)
+                } else {
+                    TermEntry::Single(a)
+                });
+                if self.peek() != Some(Tok::Comma) {
+                    break;
+                }
+                self.next();
+            }
+            let close = self.expect(Tok::RParen)?;
+            parts.push(TermPart {
+                kind,
+                entries,
+                span: kw.to(close),
+            });
+        }
+        self.expect(Tok::KwOver)?;
+        self.expect(Tok::LParen)?;
+        let over = self.names()?;
+        let close = self.expect(Tok::RParen)?;
+        let count = |k: TermKind| parts.iter().filter(|p| p.kind == k).count();
+        let (on, off, dc) = (
+            count(TermKind::On),
+            count(TermKind::Off),
+            count(TermKind::Dc),
+        );
+        if on + off != 1 || dc > 1 {
+            return None;
+        }
+        let rows = if over.len() >= 64 {
+            u64::MAX
+        } else {
+            (1u64 << over.len()) - 1
+        };
+        for entry in parts.iter().flat_map(|p| &p.entries) {
+            let (lo, hi) = match entry {
+                TermEntry::Single(n) => (n.value?, n.value?),
+                TermEntry::Range(a, b) => (a.value?, b.value?),
+            };
+            if lo > hi || hi > rows {
+                return None;
+            }
+        }
+        Some(TermList {
+            parts,
+            over,
+            span: start.to(close),
+        })
+    }
+
+    /// `(a, b -> y) { rows }`, with the checks of [`table_body`].
+    fn table(&mut self, allow_unlisted: bool) -> Option<Table> {
+        self.expect(Tok::LParen)?;
+        let inputs = if self.peek() == Some(Tok::Arrow) {
+            Vec::new()
+        } else {
+            self.names()?
+        };
+        self.expect(Tok::Arrow)?;
+        let outputs = self.names()?;
+        self.expect(Tok::RParen)?;
+        self.expect(Tok::LBrace)?;
+        let mut rows = Vec::new();
+        let mut unlisted = 0;
+        loop {
+            while self.peek() == Some(Tok::RowEnd) {
+                self.next();
+            }
+            if self.peek()? == Tok::RBrace {
+                self.next();
+                break;
+            }
+            let start = sp(self.toks.get(self.at)?.1);
+            let kind = if self.peek() == Some(Tok::KwUnlisted) {
+                self.next();
+                unlisted += 1;
+                if !allow_unlisted || unlisted > 1 {
+                    return None;
+                }
+                self.expect(Tok::Arrow)?;
+                RowKind::Unlisted {
+                    outputs: self.cells()?,
+                }
+            } else {
+                let inputs = self.cells()?;
+                self.expect(Tok::Arrow)?;
+                RowKind::Cells {
+                    inputs,
+                    outputs: self.cells()?,
+                }
+            };
+            let end = sp(self.toks[self.at - 1].1);
+            rows.push(Row {
+                kind,
+                span: start.to(end),
+                trivia: Trivia::default(),
+            });
+        }
+        Some(Table {
+            let_span: None,
+            inputs,
+            outputs,
+            rows,
+            open_comment: None,
+            closing_comments: Vec::new(),
+        })
+    }
+
+    /// Table cells: runs of `0`, `1` and `-`, one cell per character.
+    fn cells(&mut self) -> Option<Vec<Cell>> {
+        let mut cells = Vec::new();
+        while let Some(Tok::Number | Tok::Dash) = self.peek() {
+            let (_, run) = self.next()?;
+            for (i, ch) in self.src[run.range()].char_indices() {
+                let value = match ch {
+                    '0' => CellValue::Zero,
+                    '1' => CellValue::One,
+                    '-' => CellValue::Dash,
+                    _ => return None,
+                };
+                let at = run.start + i;
+                cells.push(Cell {
+                    value,
+                    span: Span::new(at, at + 1),
+                });
+            }
+        }
+        Some(cells)
     }
 
     /// A plain signal name (a keyword there is left to the grammar, which
