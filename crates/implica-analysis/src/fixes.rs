@@ -419,13 +419,40 @@ fn verify_general(
     Ok(after)
 }
 
-/// Whether applying `fix` to `src` keeps every signal's function: the text
-/// still parses (with no more syntax errors than before), every output is
-/// still there, the `never` combinations are the same, and every signal of
-/// both versions has the same on-set and the same don't-cares over the
-/// inputs (matched by name) on every combination that can occur. Intermediate
-/// signals and inputs may disappear only if nothing depended on them.
-pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
+/// Both versions of a fix, for a proof from scratch: each parsed, modelled
+/// and computed in its own manager, with the new variable of each old
+/// input (by name; `None` for an input the fix removes).
+struct Versions<'v, 'f> {
+    old: &'v Model<'f>,
+    new: &'v Model<'f>,
+    fo: &'v Functions,
+    fnew: &'v mut Functions,
+    rename: &'v dyn Fn(usize) -> Option<usize>,
+}
+
+impl Versions<'_, '_> {
+    /// Old function `f` in the new manager; `what` names it in errors.
+    fn moved(&mut self, f: BddRef, what: &str, effort: &mut Effort) -> Result<BddRef, String> {
+        match self.fnew.bdd.transfer(&self.fo.bdd, f, self.rename, effort) {
+            Ok(Some(m)) => Ok(m),
+            Ok(None) => Err(format!("{what} reads an input the fix removes")),
+            Err(_) => Err(budget(what)),
+        }
+    }
+}
+
+fn budget(what: &str) -> String {
+    format!("{what} could not be compared within the budget")
+}
+
+/// Applies `fix`, parses and computes both versions (the fixed text may have
+/// no more syntax errors than the original, and the same impossible
+/// combinations), and runs `prove` on them; the fixed text when it holds.
+fn from_scratch(
+    src: &str,
+    fix: &Fix,
+    prove: impl FnOnce(Versions) -> Result<(), String>,
+) -> Result<String, String> {
     let after = apply(src, &fix.edits)?;
     let (old_file, old_errors) = implica_syntax::parse(src);
     let (new_file, new_errors) = implica_syntax::parse(&after);
@@ -455,59 +482,70 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
         })
         .collect();
     let rename = |v: usize| old_to_new.get(v).copied().flatten();
-    let mut effort = Effort::new(50_000_000);
-    let impossible = fnew.impossible;
-    let mut same = |fnew: &mut Functions, a: BddRef, b: BddRef, what: &str| -> Result<(), String> {
-        let moved = match fnew.bdd.transfer(&fo.bdd, a, &rename, &mut effort) {
-            Ok(Some(moved)) => moved,
-            Ok(None) => return Err(format!("{what} reads an input the fix removes")),
-            Err(_) => return Err(format!("{what} could not be compared within the budget")),
-        };
-        // Only combinations that can occur count: on a `never` combination
-        // every signal is free.
-        let differs = (|| {
-            let d = fnew.bdd.xor(moved, b, &mut effort)?;
-            let possible = fnew.bdd.not(impossible, &mut effort)?;
-            fnew.bdd.and(d, possible, &mut effort)
-        })();
-        match differs {
-            Ok(BddRef::FALSE) => Ok(()),
-            Ok(_) => Err(format!("{what} would change")),
-            Err(_) => Err(format!("{what} could not be compared within the budget")),
-        }
+    let mut v = Versions {
+        old: &old,
+        new: &new,
+        fo: &fo,
+        fnew: &mut fnew,
+        rename: &rename,
     };
     // The impossible combinations themselves must not change.
-    let moved = fnew.bdd.transfer(
-        &fo.bdd,
-        fo.impossible,
-        &rename,
-        &mut Effort::new(50_000_000),
-    );
-    if !matches!(moved, Ok(Some(m)) if m == impossible) {
+    let moved = v.moved(fo.impossible, "`never`", &mut Effort::new(50_000_000));
+    if !matches!(moved, Ok(m) if m == v.fnew.impossible) {
         return Err("the impossible inputs (`never`) would change".to_string());
     }
-    for (s, sig) in old.signals.iter().enumerate() {
-        let Some(t) = counterpart(&old, &new, s)? else {
-            continue;
-        };
-        match (fo.value(s), fnew.value(t)) {
-            (Ok(a), Ok(b)) => {
-                same(&mut fnew, a.lower, b.lower, &format!("`{}`", sig.name))?;
-                same(
-                    &mut fnew,
-                    a.upper,
-                    b.upper,
-                    &format!("the freedom of `{}`", sig.name),
-                )?;
-            }
-            (Ok(_), Err(_)) => {
-                return Err(format!("`{}` would no longer have a function", sig.name));
-            }
-            // Unknown before: the fix cannot make it worse.
-            (Err(_), _) => {}
-        }
-    }
+    prove(v)?;
     Ok(after)
+}
+
+/// Whether applying `fix` to `src` keeps every signal's function: the text
+/// still parses (with no more syntax errors than before), every output is
+/// still there, the `never` combinations are the same, and every signal of
+/// both versions has the same on-set and the same don't-cares over the
+/// inputs (matched by name) on every combination that can occur. Intermediate
+/// signals and inputs may disappear only if nothing depended on them.
+pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
+    from_scratch(src, fix, |mut v| {
+        let mut effort = Effort::new(50_000_000);
+        let possible = v
+            .fnew
+            .bdd
+            .not(v.fnew.impossible, &mut effort)
+            .map_err(|_| budget("the possible inputs"))?;
+        for (s, sig) in v.old.signals.iter().enumerate() {
+            let Some(t) = counterpart(v.old, v.new, s)? else {
+                continue;
+            };
+            match (v.fo.value(s), v.fnew.value(t)) {
+                (Ok(a), Ok(b)) => {
+                    for (x, y, what) in [
+                        (a.lower, b.lower, format!("`{}`", sig.name)),
+                        (a.upper, b.upper, format!("the freedom of `{}`", sig.name)),
+                    ] {
+                        let moved = v.moved(x, &what, &mut effort)?;
+                        // Only combinations that can occur count: on a
+                        // `never` combination every signal is free.
+                        let differs = v
+                            .fnew
+                            .bdd
+                            .xor(moved, y, &mut effort)
+                            .and_then(|d| v.fnew.bdd.and(d, possible, &mut effort));
+                        match differs {
+                            Ok(BddRef::FALSE) => {}
+                            Ok(_) => return Err(format!("{what} would change")),
+                            Err(_) => return Err(budget(&what)),
+                        }
+                    }
+                }
+                (Ok(_), Err(_)) => {
+                    return Err(format!("`{}` would no longer have a function", sig.name));
+                }
+                // Unknown before: the fix cannot make it worse.
+                (Err(_), _) => {}
+            }
+        }
+        Ok(())
+    })
 }
 
 /// Whether applying `fix` to `src` only narrows freedom: the text still
@@ -521,84 +559,49 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
 /// see a value the specification forbade. [`verify`] is the stricter proof
 /// for rewrites that must keep the freedom as well.
 pub fn verify_narrowing(src: &str, fix: &Fix) -> Result<String, String> {
-    let after = apply(src, &fix.edits)?;
-    let (old_file, old_errors) = implica_syntax::parse(src);
-    let (new_file, new_errors) = implica_syntax::parse(&after);
-    if new_errors.len() > old_errors.len() {
-        return Err(format!(
-            "the new text does not parse: {}",
-            new_errors
-                .first()
-                .map_or(String::new(), |e| e.message.clone())
-        ));
-    }
-    let (old, new) = (Model::build(&old_file), Model::build(&new_file));
-    let (Ok(fo), Ok(mut fnew)) = (
-        Functions::compute(&old, DEFAULT_WORK_PER_DEFINITION, None),
-        Functions::compute(&new, DEFAULT_WORK_PER_DEFINITION, None),
-    ) else {
-        return Err("the analysis was cancelled".to_string());
-    };
-    let old_to_new: Vec<Option<usize>> = old
-        .inputs
-        .iter()
-        .map(|&s| {
-            new.signal(&old.signals[s].name)
-                .and_then(|t| new.signals[t].input_index)
-        })
-        .collect();
-    let rename = |v: usize| old_to_new.get(v).copied().flatten();
-    let mut effort = Effort::new(50_000_000);
-    let budget = |what: &str| format!("{what} could not be compared within the budget");
-    let moved = fnew
-        .bdd
-        .transfer(&fo.bdd, fo.impossible, &rename, &mut effort);
-    if !matches!(moved, Ok(Some(m)) if m == fnew.impossible) {
-        return Err("the impossible inputs (`never`) would change".to_string());
-    }
-    let possible = fnew
-        .bdd
-        .not(fnew.impossible, &mut effort)
-        .map_err(|_| budget("the possible inputs"))?;
-    for (s, sig) in old.signals.iter().enumerate() {
-        let Some(t) = counterpart(&old, &new, s)? else {
-            continue;
-        };
-        let what = format!("`{}`", sig.name);
-        match (fo.value(s), fnew.value(t)) {
-            (Ok(a), Ok(b)) => {
-                let mut moved =
-                    |f: BddRef| match fnew.bdd.transfer(&fo.bdd, f, &rename, &mut effort) {
-                        Ok(Some(m)) => Ok(m),
-                        Ok(None) => Err(format!("{what} reads an input the change removes")),
-                        Err(_) => Err(budget(&what)),
-                    };
-                let (old_lower, old_upper) = (moved(a.lower)?, moved(a.upper)?);
-                // Each must be empty where inputs can occur: a sure 1 lost,
-                // and a possible 1 gained.
-                for (inside, outside, how) in [
-                    (old_lower, b.lower, "would lose a value it must have"),
-                    (b.upper, old_upper, "would take a value it must not"),
-                ] {
-                    let escaped = (|| {
-                        let not_outside = fnew.bdd.not(outside, &mut effort)?;
-                        let d = fnew.bdd.and(inside, not_outside, &mut effort)?;
-                        fnew.bdd.and(d, possible, &mut effort)
-                    })();
-                    match escaped {
-                        Ok(BddRef::FALSE) => {}
-                        Ok(_) => return Err(format!("{what} {how}")),
-                        Err(_) => return Err(budget(&what)),
+    from_scratch(src, fix, |mut v| {
+        let mut effort = Effort::new(50_000_000);
+        let possible = v
+            .fnew
+            .bdd
+            .not(v.fnew.impossible, &mut effort)
+            .map_err(|_| budget("the possible inputs"))?;
+        for (s, sig) in v.old.signals.iter().enumerate() {
+            let Some(t) = counterpart(v.old, v.new, s)? else {
+                continue;
+            };
+            let what = format!("`{}`", sig.name);
+            match (v.fo.value(s), v.fnew.value(t)) {
+                (Ok(a), Ok(b)) => {
+                    let old_lower = v.moved(a.lower, &what, &mut effort)?;
+                    let old_upper = v.moved(a.upper, &what, &mut effort)?;
+                    // Each must be empty where inputs can occur: a sure 1
+                    // lost, and a possible 1 gained.
+                    for (inside, outside, how) in [
+                        (old_lower, b.lower, "would lose a value it must have"),
+                        (b.upper, old_upper, "would take a value it must not"),
+                    ] {
+                        let escaped = v
+                            .fnew
+                            .bdd
+                            .not(outside, &mut effort)
+                            .and_then(|n| v.fnew.bdd.and(inside, n, &mut effort))
+                            .and_then(|d| v.fnew.bdd.and(d, possible, &mut effort));
+                        match escaped {
+                            Ok(BddRef::FALSE) => {}
+                            Ok(_) => return Err(format!("{what} {how}")),
+                            Err(_) => return Err(budget(&what)),
+                        }
                     }
                 }
+                (Ok(_), Err(_)) => {
+                    return Err(format!("{what} would no longer have a function"));
+                }
+                (Err(_), _) => {}
             }
-            (Ok(_), Err(_)) => {
-                return Err(format!("{what} would no longer have a function"));
-            }
-            (Err(_), _) => {}
         }
-    }
-    Ok(after)
+        Ok(())
+    })
 }
 
 /// The result of [`fix_all`].
