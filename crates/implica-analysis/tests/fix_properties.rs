@@ -8,18 +8,10 @@ use implica_syntax::ast::{BinOp, Expr, ExprKind, ItemKind, Rhs, SourceFile};
 use proptest::prelude::*;
 use std::collections::HashMap;
 
-const INPUTS: [&str; 5] = ["a", "b", "c", "d", "e"];
+mod programs;
+use programs::{INPUTS, product};
 
-/// A literal, a product of literals, or a sum of products, as text.
-fn literal(names: Vec<String>) -> impl Strategy<Value = String> {
-    (proptest::sample::select(names), any::<bool>())
-        .prop_map(|(n, neg)| if neg { format!("!{n}") } else { n })
-}
-
-fn product(names: Vec<String>) -> impl Strategy<Value = String> {
-    proptest::collection::vec(literal(names), 1..4).prop_map(|ls| ls.join(" & "))
-}
-
+/// A sum of products, as text.
 fn sum(names: Vec<String>) -> impl Strategy<Value = String> {
     proptest::collection::vec(product(names), 1..5).prop_flat_map(|terms| {
         // Sometimes repeat a term, or add an absorbed copy, so that the

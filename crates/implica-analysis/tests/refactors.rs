@@ -763,16 +763,8 @@ fn every_refactor_of_the_examples_is_proven_and_checked() {
 // ---------------------------------------------------------------------------
 // Generated programs.
 
-const INPUTS: [&str; 5] = ["a", "b", "c", "d", "e"];
-
-fn literal(names: Vec<String>) -> impl Strategy<Value = String> {
-    (proptest::sample::select(names), any::<bool>())
-        .prop_map(|(n, neg)| if neg { format!("!{n}") } else { n })
-}
-
-fn product(names: Vec<String>) -> impl Strategy<Value = String> {
-    proptest::collection::vec(literal(names), 1..4).prop_map(|ls| ls.join(" & "))
-}
+mod programs;
+use programs::{INPUTS, literal, product};
 
 /// A sum of products, sometimes with a `nand`, an `xor` or parentheses.
 fn expression(names: Vec<String>) -> impl Strategy<Value = String> {
