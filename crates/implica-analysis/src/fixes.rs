@@ -4,7 +4,7 @@
 //! applied it to the text, re-parsed and re-analysed the result, and found
 //! every signal's function (and its freedom) the same as before.
 
-use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions};
+use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions, Known};
 use crate::model::{Model, SignalKind};
 use crate::{Edit, Fix};
 use implica_logic::{BddRef, Effort};
@@ -419,18 +419,16 @@ fn verify_general(
     Ok(after)
 }
 
-/// Both versions of a fix, for a proof from scratch: each parsed, modelled
-/// and computed in its own manager, with the new variable of each old
-/// input (by name; `None` for an input the fix removes).
-struct Versions<'v, 'f> {
-    old: &'v Model<'f>,
-    new: &'v Model<'f>,
+/// The functions of both versions of a fix, for a proof from scratch: each
+/// computed in its own manager, with the new variable of each old input
+/// (by name; `None` for an input the fix removes).
+struct Versions<'v> {
     fo: &'v Functions,
     fnew: &'v mut Functions,
     rename: &'v dyn Fn(usize) -> Option<usize>,
 }
 
-impl Versions<'_, '_> {
+impl Versions<'_> {
     /// Old function `f` in the new manager; `what` names it in errors.
     fn moved(&mut self, f: BddRef, what: &str, effort: &mut Effort) -> Result<BddRef, String> {
         match self.fnew.bdd.transfer(&self.fo.bdd, f, self.rename, effort) {
@@ -447,11 +445,15 @@ fn budget(what: &str) -> String {
 
 /// Applies `fix`, parses and computes both versions (the fixed text may have
 /// no more syntax errors than the original, and the same impossible
-/// combinations), and runs `prove` on them; the fixed text when it holds.
+/// combinations), and runs `prove` on each signal of the original that has
+/// a function, with its name, its old and new value and the combinations
+/// that can occur (in the new manager); the fixed text when all hold. A
+/// signal without a function before cannot be made worse; one that loses
+/// its function, or an output that loses its definition, fails the proof.
 fn from_scratch(
     src: &str,
     fix: &Fix,
-    prove: impl FnOnce(Versions) -> Result<(), String>,
+    mut prove: impl FnMut(&mut Versions, &str, Known, Known, BddRef, &mut Effort) -> Result<(), String>,
 ) -> Result<String, String> {
     let after = apply(src, &fix.edits)?;
     let (old_file, old_errors) = implica_syntax::parse(src);
@@ -483,18 +485,35 @@ fn from_scratch(
         .collect();
     let rename = |v: usize| old_to_new.get(v).copied().flatten();
     let mut v = Versions {
-        old: &old,
-        new: &new,
         fo: &fo,
         fnew: &mut fnew,
         rename: &rename,
     };
+    let mut effort = Effort::new(50_000_000);
     // The impossible combinations themselves must not change.
-    let moved = v.moved(fo.impossible, "`never`", &mut Effort::new(50_000_000));
+    let moved = v.moved(fo.impossible, "`never`", &mut effort);
     if !matches!(moved, Ok(m) if m == v.fnew.impossible) {
         return Err("the impossible inputs (`never`) would change".to_string());
     }
-    prove(v)?;
+    // Only combinations that can occur count: on a `never` combination
+    // every signal is free.
+    let possible = v
+        .fnew
+        .bdd
+        .not(v.fnew.impossible, &mut effort)
+        .map_err(|_| budget("the possible inputs"))?;
+    for (s, sig) in old.signals.iter().enumerate() {
+        let Some(t) = counterpart(&old, &new, s)? else {
+            continue;
+        };
+        match (fo.value(s), v.fnew.value(t)) {
+            (Ok(a), Ok(b)) => prove(&mut v, &sig.name, a, b, possible, &mut effort)?,
+            (Ok(_), Err(_)) => {
+                return Err(format!("`{}` would no longer have a function", sig.name));
+            }
+            (Err(_), _) => {}
+        }
+    }
     Ok(after)
 }
 
@@ -505,43 +524,21 @@ fn from_scratch(
 /// inputs (matched by name) on every combination that can occur. Intermediate
 /// signals and inputs may disappear only if nothing depended on them.
 pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
-    from_scratch(src, fix, |mut v| {
-        let mut effort = Effort::new(50_000_000);
-        let possible = v
-            .fnew
-            .bdd
-            .not(v.fnew.impossible, &mut effort)
-            .map_err(|_| budget("the possible inputs"))?;
-        for (s, sig) in v.old.signals.iter().enumerate() {
-            let Some(t) = counterpart(v.old, v.new, s)? else {
-                continue;
-            };
-            match (v.fo.value(s), v.fnew.value(t)) {
-                (Ok(a), Ok(b)) => {
-                    for (x, y, what) in [
-                        (a.lower, b.lower, format!("`{}`", sig.name)),
-                        (a.upper, b.upper, format!("the freedom of `{}`", sig.name)),
-                    ] {
-                        let moved = v.moved(x, &what, &mut effort)?;
-                        // Only combinations that can occur count: on a
-                        // `never` combination every signal is free.
-                        let differs = v
-                            .fnew
-                            .bdd
-                            .xor(moved, y, &mut effort)
-                            .and_then(|d| v.fnew.bdd.and(d, possible, &mut effort));
-                        match differs {
-                            Ok(BddRef::FALSE) => {}
-                            Ok(_) => return Err(format!("{what} would change")),
-                            Err(_) => return Err(budget(&what)),
-                        }
-                    }
-                }
-                (Ok(_), Err(_)) => {
-                    return Err(format!("`{}` would no longer have a function", sig.name));
-                }
-                // Unknown before: the fix cannot make it worse.
-                (Err(_), _) => {}
+    from_scratch(src, fix, |v, name, a, b, possible, effort| {
+        for (x, y, what) in [
+            (a.lower, b.lower, format!("`{name}`")),
+            (a.upper, b.upper, format!("the freedom of `{name}`")),
+        ] {
+            let moved = v.moved(x, &what, effort)?;
+            let differs = v
+                .fnew
+                .bdd
+                .xor(moved, y, effort)
+                .and_then(|d| v.fnew.bdd.and(d, possible, effort));
+            match differs {
+                Ok(BddRef::FALSE) => {}
+                Ok(_) => return Err(format!("{what} would change")),
+                Err(_) => return Err(budget(&what)),
             }
         }
         Ok(())
@@ -559,45 +556,26 @@ pub fn verify(src: &str, fix: &Fix) -> Result<String, String> {
 /// see a value the specification forbade. [`verify`] is the stricter proof
 /// for rewrites that must keep the freedom as well.
 pub fn verify_narrowing(src: &str, fix: &Fix) -> Result<String, String> {
-    from_scratch(src, fix, |mut v| {
-        let mut effort = Effort::new(50_000_000);
-        let possible = v
-            .fnew
-            .bdd
-            .not(v.fnew.impossible, &mut effort)
-            .map_err(|_| budget("the possible inputs"))?;
-        for (s, sig) in v.old.signals.iter().enumerate() {
-            let Some(t) = counterpart(v.old, v.new, s)? else {
-                continue;
-            };
-            let what = format!("`{}`", sig.name);
-            match (v.fo.value(s), v.fnew.value(t)) {
-                (Ok(a), Ok(b)) => {
-                    let old_lower = v.moved(a.lower, &what, &mut effort)?;
-                    let old_upper = v.moved(a.upper, &what, &mut effort)?;
-                    // Each must be empty where inputs can occur: a sure 1
-                    // lost, and a possible 1 gained.
-                    for (inside, outside, how) in [
-                        (old_lower, b.lower, "would lose a value it must have"),
-                        (b.upper, old_upper, "would take a value it must not"),
-                    ] {
-                        let escaped = v
-                            .fnew
-                            .bdd
-                            .not(outside, &mut effort)
-                            .and_then(|n| v.fnew.bdd.and(inside, n, &mut effort))
-                            .and_then(|d| v.fnew.bdd.and(d, possible, &mut effort));
-                        match escaped {
-                            Ok(BddRef::FALSE) => {}
-                            Ok(_) => return Err(format!("{what} {how}")),
-                            Err(_) => return Err(budget(&what)),
-                        }
-                    }
-                }
-                (Ok(_), Err(_)) => {
-                    return Err(format!("{what} would no longer have a function"));
-                }
-                (Err(_), _) => {}
+    from_scratch(src, fix, |v, name, a, b, possible, effort| {
+        let what = format!("`{name}`");
+        let old_lower = v.moved(a.lower, &what, effort)?;
+        let old_upper = v.moved(a.upper, &what, effort)?;
+        // Each must be empty where inputs can occur: a sure 1 lost, and a
+        // possible 1 gained.
+        for (inside, outside, how) in [
+            (old_lower, b.lower, "would lose a value it must have"),
+            (b.upper, old_upper, "would take a value it must not"),
+        ] {
+            let escaped = v
+                .fnew
+                .bdd
+                .not(outside, effort)
+                .and_then(|n| v.fnew.bdd.and(inside, n, effort))
+                .and_then(|d| v.fnew.bdd.and(d, possible, effort));
+            match escaped {
+                Ok(BddRef::FALSE) => {}
+                Ok(_) => return Err(format!("{what} {how}")),
+                Err(_) => return Err(budget(&what)),
             }
         }
         Ok(())
