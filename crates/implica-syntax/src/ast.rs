@@ -203,6 +203,20 @@ pub struct Table {
     pub closing_comments: Vec<(bool, Comment)>,
 }
 
+impl Table {
+    /// A table as parsed, before `let` and comments are attached.
+    pub(crate) fn parsed(inputs: Vec<Name>, outputs: Vec<Name>, rows: Vec<Row>) -> Table {
+        Table {
+            let_span: None,
+            inputs,
+            outputs,
+            rows,
+            open_comment: None,
+            closing_comments: Vec::new(),
+        }
+    }
+}
+
 /// A table row.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Row {

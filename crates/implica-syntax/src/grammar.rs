@@ -517,14 +517,7 @@ where
             }
             ((inputs, outputs), rows)
         })
-        .map(|((inputs, outputs), rows)| Table {
-            let_span: None,
-            inputs,
-            outputs,
-            rows,
-            open_comment: None,
-            closing_comments: Vec::new(),
-        })
+        .map(|((inputs, outputs), rows)| Table::parsed(inputs, outputs, rows))
 }
 
 /// One statement, up to the end of its token chunk.
@@ -839,14 +832,7 @@ impl Cursor<'_, '_> {
                 trivia: Trivia::default(),
             });
         }
-        Some(Table {
-            let_span: None,
-            inputs,
-            outputs,
-            rows,
-            open_comment: None,
-            closing_comments: Vec::new(),
-        })
+        Some(Table::parsed(inputs, outputs, rows))
     }
 
     /// Table cells: runs of `0`, `1` and `-`, one cell per character.
