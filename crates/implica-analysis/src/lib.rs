@@ -183,6 +183,7 @@ fn run_rules(
         model,
         functions: &mut functions,
         cache,
+        cancel,
         forms: Default::default(),
         non_minimal: Default::default(),
     };

@@ -200,3 +200,49 @@ fn what_the_session_keeps_stays_bounded() {
     session.analyze(three, &config);
     assert!(session.kept() < both / 4, "{} of {both}", session.kept());
 }
+
+/// Cancelled at any point (after the k-th poll, for many k), an analysis
+/// returns nothing or a whole answer, and leaves nothing behind that makes
+/// a later one differ from a fresh analysis.
+#[test]
+fn a_cancellation_anywhere_leaves_the_session_sound() {
+    let config = Config::default();
+    let src = common::spec(30, false);
+    let edited = src.replacen("in_1", "in_2", 1);
+    // How often an analysis of the edit polls, when nothing stops it.
+    let total = {
+        let mut session = Session::new();
+        session.analyze(&src, &config);
+        let polls = std::cell::Cell::new(0usize);
+        let count = || {
+            polls.set(polls.get() + 1);
+            false
+        };
+        session.analyze_cancellable(&edited, &config, Some(&count));
+        polls.get()
+    };
+    assert!(total > 20, "{total} polls");
+    let mut stopped = 0;
+    for k in (0..total + 5).step_by(total / 20) {
+        let mut session = Session::new();
+        session.analyze(&src, &config);
+        let polls = std::cell::Cell::new(0usize);
+        let stop = || {
+            polls.set(polls.get() + 1);
+            polls.get() > k
+        };
+        match session.analyze_cancellable(&edited, &config, Some(&stop)) {
+            None => stopped += 1,
+            Some(a) => same(&a, &analyze_with(&edited, &config), &edited, k),
+        }
+        for text in [&edited, &src, &edited] {
+            same(
+                &session.analyze(text, &config),
+                &analyze_with(text, &config),
+                text,
+                k,
+            );
+        }
+    }
+    assert!(stopped >= 15, "only {stopped} analyses were stopped");
+}

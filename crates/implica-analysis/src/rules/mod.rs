@@ -131,6 +131,10 @@ pub struct Ctx<'a, 'f> {
     /// Per-definition results kept from the last analysis (see
     /// [`crate::session`]).
     pub(crate) cache: &'a mut crate::session::Cache,
+    /// The caller's cancellation check. The per-definition computations
+    /// poll it and give nothing once it says stop (nothing is kept for the
+    /// next analysis then); the driver drops the analysis after the rule.
+    pub(crate) cancel: Option<&'a dyn Fn() -> bool>,
     /// Expression definitions as functions of the names they read, by
     /// definition, computed once for the rules that need them.
     pub(crate) forms:
@@ -151,6 +155,9 @@ impl<'a> Ctx<'a, '_> {
     ) -> Option<std::sync::Arc<crate::forms::ExprFunction>> {
         if let Some(f) = self.forms.get(&id) {
             return f.clone();
+        }
+        if self.cancel.is_some_and(|c| c()) {
+            return None;
         }
         // What the result depends on: the text, the functions of the names
         // it reads (in this manager), and the impossible combinations.
