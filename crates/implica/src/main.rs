@@ -10,6 +10,7 @@ mod fix;
 mod fmt;
 mod minimize;
 mod project;
+mod refactor;
 mod table;
 
 use clap::{Parser, Subcommand, ValueEnum};
@@ -162,6 +163,31 @@ enum Command {
         #[arg(long, short, value_name = "FILE")]
         output: Option<PathBuf>,
     },
+    /// List the refactors offered at a place in a file, or apply one (--apply KIND).
+    ///
+    /// The place is `LINE` or `LINE:COLUMN`, counted from 1 (columns in characters): the
+    /// statement there, or the name there for inlining. Refactors: `to-table` (an
+    /// expression as a truth table), `to-expression` (a table or row list as minimal
+    /// expressions), `to-nand` / `to-nor` (one gate kind only), `inline-here` /
+    /// `inline-everywhere` (an intermediate signal replaced by its expression). Each is
+    /// proven before it is offered: the same function for every signal, or, where it
+    /// settles don't-cares (marked "to review"), a value the file allowed. Writes are
+    /// atomic; `-` reads standard input and writes the result to standard output. Exit
+    /// status: 0 when listed or applied, 1 when nothing (or not that refactor) is offered
+    /// there, 2 when the file cannot be read or written or the place is not in it.
+    Refactor {
+        /// The file (`-` reads standard input).
+        file: PathBuf,
+        /// The place: LINE or LINE:COLUMN.
+        #[arg(long, value_name = "LINE[:COL]")]
+        at: String,
+        /// Apply the refactor of this kind (as listed) instead of listing them.
+        #[arg(long, value_name = "KIND")]
+        apply: Option<String>,
+        /// With --apply, print a unified diff instead of writing.
+        #[arg(long, requires = "apply")]
+        diff: bool,
+    },
     /// List every rule: name, default severity (or `off`), one line on what it finds.
     Rules,
     /// Print a rule's full documentation: what it finds, why it matters, an example, the fix.
@@ -245,6 +271,19 @@ fn main() -> ExitCode {
             name,
             output,
         } => export::run(&file, to, as_written, name.as_deref(), output.as_deref()),
+        Command::Refactor {
+            file,
+            at,
+            apply,
+            diff,
+        } => refactor::run(
+            &file,
+            &at,
+            match &apply {
+                Some(kind) => refactor::Action::Apply { kind, diff },
+                None => refactor::Action::List,
+            },
+        ),
         Command::Rules => {
             let rules = implica_analysis::rules::ALL;
             let width = rules.iter().map(|r| r.name.len()).max().unwrap_or(0);
