@@ -48,6 +48,10 @@ fn counterpart(old: &Model, new: &Model, s: usize) -> Result<Option<usize>, Stri
         .signal(&sig.name)
         .filter(|&t| !new.signals[t].definitions.is_empty())
     {
+        // An output stays one: a fix does not change the interface.
+        Some(t) if sig.kind == SignalKind::Output && new.signals[t].kind != SignalKind::Output => {
+            Err(format!("`{}` would no longer be an output", sig.name))
+        }
         Some(t) => Ok(Some(t)),
         None if sig.kind == SignalKind::Intermediate || sig.definitions.is_empty() => Ok(None),
         None => Err(format!("`{}` would no longer be defined", sig.name)),
@@ -225,10 +229,19 @@ fn verify_unread_inputs(model: &Model, src: &str, fix: &Fix) -> Option<Result<()
     let end = src[item.span.end..]
         .find('\n')
         .map_or(src.len(), |i| item.span.end + i + 1);
-    if !fix
-        .edits
+    // The lines hold this statement alone, and the edits stay on them.
+    let alone = model
+        .file
+        .items
         .iter()
-        .all(|e| start <= e.span.start && e.span.end <= end)
+        .filter(|it| it.span.start < end && start < it.span.end)
+        .count()
+        == 1;
+    if !alone
+        || !fix
+            .edits
+            .iter()
+            .all(|e| start <= e.span.start && e.span.end <= end)
     {
         return None;
     }
@@ -244,6 +257,11 @@ fn verify_unread_inputs(model: &Model, src: &str, fix: &Fix) -> Option<Result<()
         Ok(t) => t,
         Err(e) => return Some(Err(e)),
     };
+    // What remains of the lines still ends a line, so that the next line
+    // reads as before (no statement joined onto this one).
+    if end < src.len() && !(text.is_empty() || text.ends_with('\n')) {
+        return None;
+    }
     let (file, errors) = implica_syntax::parse(&text);
     if !errors.is_empty() {
         return None;
@@ -661,5 +679,51 @@ pub fn fix_all(src: &str, config: &crate::config::Config, review: bool) -> FixAl
         text,
         applied,
         internal_errors,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use implica_syntax::Span;
+
+    fn prove(src: &str, span: (usize, usize), new_text: &str) -> Result<(), String> {
+        let (file, errors) = implica_syntax::parse(src);
+        let model = Model::build(&file);
+        let mut functions = Functions::compute(&model, DEFAULT_WORK_PER_DEFINITION, None).unwrap();
+        let mut cache = crate::session::Cache::default();
+        let fix = Fix {
+            title: "test".to_string(),
+            applicability: crate::Applicability::Safe,
+            edits: vec![Edit {
+                span: Span::new(span.0, span.1),
+                new_text: new_text.to_string(),
+            }],
+        };
+        prove_in(&model, &mut functions, src, errors.len(), &fix, &mut cache)
+    }
+
+    /// The proof of taking unread names out of an `input` statement holds
+    /// for exactly those edits, whichever way it is reached.
+    #[test]
+    fn taking_inputs_out_is_proven_only_when_nothing_reads_them() {
+        let src = "input a, b, spare  # sensors\noutput y\ny = a & b\n";
+        let at = |s: &str| src.find(s).unwrap();
+        // `, spare` out: nothing reads it.
+        let spare = at(", spare");
+        assert_eq!(prove(src, (spare, spare + 7), ""), Ok(()));
+        // `, b` out: `y` reads it.
+        let b = at(", b");
+        assert!(prove(src, (b, b + 3), "").is_err());
+        // The whole statement with its line: `a` and `b` are read.
+        assert!(prove(src, (0, at("output")), "").is_err());
+        // The line break gone: `output` would join the statement.
+        let nl = at("\noutput");
+        assert!(prove(src, (nl, nl + 1), "").is_err());
+        // Two statements on one line: the other one may not go with it.
+        let two = "input a, spare output y\ny = a\n";
+        let s = two.find(", spare").unwrap();
+        assert_eq!(prove(two, (s, s + 7), ""), Ok(()));
+        assert!(prove(two, (s, two.find('\n').unwrap()), "").is_err());
     }
 }
