@@ -91,6 +91,9 @@ pub struct Edited {
     pub impossible: BddRef,
 }
 
+/// Choice variables a new manager has room for, per signal.
+pub(crate) const CHOICE_ROOM: usize = 16;
+
 /// The functions of all signals of one document.
 pub struct Functions {
     pub bdd: Bdd,
@@ -149,8 +152,9 @@ impl Functions {
     ) -> Result<Functions, Interrupted> {
         let inputs = model.inputs.len();
         // Room for a choice variable per signal, and for those of edited
-        // versions computed in the same manager (`edited`).
-        let vars = inputs + 4 * model.signals.len() + 1024;
+        // versions computed in the same manager (`edited`, and a session's
+        // later versions: `update`). A variable costs nothing until used.
+        let vars = inputs + CHOICE_ROOM * model.signals.len() + 4096;
         let mut f = Functions {
             bdd: Bdd::new(vars),
             inputs,
@@ -395,6 +399,12 @@ impl Functions {
             }
         }
         Ok(impossible)
+    }
+
+    /// Choice variables not yet given to a signal with don't-cares (each
+    /// computation of such a signal takes a new one).
+    pub fn choices_left(&self) -> usize {
+        self.bdd.vars().saturating_sub(self.next_choice)
     }
 
     /// The function of a signal.

@@ -30,8 +30,10 @@
 //! only saves work.
 //!
 //! Memory stays bounded: results the last analysis did not use are dropped
-//! when the next one starts, and the BDD manager is built afresh when it has grown to four
-//! times its fresh size (functions of earlier versions are garbage in it).
+//! when the next one starts, and the BDD manager is built afresh when it
+//! has grown to four times its fresh size (functions of earlier versions
+//! are garbage in it), or has used half its choice variables (each version
+//! of a signal with don't-cares takes one).
 
 use crate::config::Config;
 use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions};
@@ -202,7 +204,15 @@ impl Session {
         let (file, errors) = implica_syntax::parse(src);
         let model = Model::build(&file);
         let functions = match self.previous.take() {
-            Some(mut p) if p.functions.bdd.len() < GROWTH * p.fresh_nodes.max(1 << 16) => {
+            // Kept while it has not grown too much, and has a choice
+            // variable left for every signal (each recomputed signal with
+            // don't-cares takes a new one; running out would make a signal
+            // unknown that a fresh analysis knows).
+            Some(mut p)
+                if p.functions.bdd.len() < GROWTH * p.fresh_nodes.max(1 << 16)
+                    && p.functions.choices_left()
+                        > crate::functions::CHOICE_ROOM / 2 * model.signals.len() + 2048 =>
+            {
                 let old = Model::build(&p.file);
                 match p.functions.update(
                     (&old, &p.text),

@@ -246,3 +246,31 @@ fn a_cancellation_anywhere_leaves_the_session_sound() {
     }
     assert!(stopped >= 15, "only {stopped} analyses were stopped");
 }
+
+/// Each new version of a signal with don't-cares takes a choice variable of
+/// the session's manager; a long editing session runs through them, and the
+/// session starts a new manager before they run out.
+#[test]
+fn a_long_session_of_edits_to_dont_care_signals_stays_exact() {
+    let config = Config::default();
+    let mut src = String::from("input a, b, c, d\noutput y\n");
+    for k in 0..40 {
+        src.push_str(&format!(
+            "let t{k} = on({}) dc(15) over (a, b, c, d)\n",
+            k % 15
+        ));
+    }
+    // An assertion that fails, so that an unknown `y` would show.
+    src.push_str("y = t0 | t1 & t2\nassert y\n");
+    let mut session = Session::new();
+    for step in 0..150 {
+        // Every version changes every term list (the row numbers move).
+        let text = src.replace("dc(15)", &format!("dc({})", 15 - step % 2));
+        same(
+            &session.analyze(&text, &config),
+            &analyze_with(&text, &config),
+            &text,
+            step,
+        );
+    }
+}
