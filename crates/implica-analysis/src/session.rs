@@ -40,7 +40,7 @@ use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions};
 use crate::hash::FastMap;
 use crate::model::Model;
 use crate::rules::MinimalPair;
-use implica_logic::{BddRef, Budget, Interrupted, TruthTable};
+use implica_logic::{BddRef, Budget, DEFAULT_MAX_NODES, Interrupted, TruthTable};
 use implica_syntax::ast::SmolStr;
 use implica_syntax::ast::SourceFile;
 use std::hash::Hash;
@@ -204,12 +204,14 @@ impl Session {
         let (file, errors) = implica_syntax::parse(src);
         let model = Model::build(&file);
         let functions = match self.previous.take() {
-            // Kept while it has not grown too much, and has a choice
-            // variable left for every signal (each recomputed signal with
-            // don't-cares takes a new one; running out would make a signal
-            // unknown that a fresh analysis knows).
+            // Kept while it has not grown too much (and is far from its
+            // node limit, which a fresh manager would not meet), and has
+            // choice variables to spare (each recomputed signal with
+            // don't-cares takes a new one; running out, or out of nodes,
+            // would leave a signal unknown that a fresh analysis knows).
             Some(mut p)
-                if p.functions.bdd.len() < GROWTH * p.fresh_nodes.max(1 << 16)
+                if p.functions.bdd.len()
+                    < (GROWTH * p.fresh_nodes.max(1 << 16)).min(DEFAULT_MAX_NODES / 2)
                     && p.functions.choices_left()
                         > crate::functions::CHOICE_ROOM / 2 * model.signals.len() + 2048 =>
             {
