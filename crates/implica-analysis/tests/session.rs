@@ -274,3 +274,21 @@ fn a_long_session_of_edits_to_dont_care_signals_stays_exact() {
         );
     }
 }
+
+/// A language server keeps a session per document across its tasks, so a
+/// session must move between threads (this fails to compile otherwise).
+#[test]
+fn a_session_can_move_to_another_thread() {
+    fn movable<T: Send + 'static>(_: &T) {}
+    let mut session = Session::new();
+    movable(&session);
+    let src = "input a, b\noutput y\ny = a & b | a & b\n";
+    session.analyze(src, &Config::default());
+    let moved = std::thread::spawn(move || {
+        let a = session.analyze(src, &Config::default());
+        (a.diagnostics.len(), session)
+    })
+    .join()
+    .unwrap();
+    assert_eq!(moved.0, 1);
+}
