@@ -42,11 +42,11 @@ pub enum PreferredForm {
 #[derive(Debug, Clone)]
 pub struct Config {
     /// `None`: the rule is off.
-    severities: crate::hash::FastMap<&'static str, Option<Severity>>,
+    severities: implica_logic::FastMap<&'static str, Option<Severity>>,
     /// Rules whose severity the configuration sets (the others keep the
     /// severity each diagnostic comes with: a rule may raise its default
     /// for a worse case).
-    explicit: crate::hash::FastSet<&'static str>,
+    explicit: implica_logic::FastSet<&'static str>,
     pub form: PreferredForm,
     pub budget: Budget,
 }
@@ -61,7 +61,7 @@ pub struct ConfigError {
 
 impl Default for Config {
     fn default() -> Config {
-        let mut severities = crate::hash::FastMap::default();
+        let mut severities = implica_logic::FastMap::default();
         for r in rules::ALL {
             let on = !OFF_BY_DEFAULT.contains(&r.name);
             severities.insert(r.name, on.then_some(r.default_severity));

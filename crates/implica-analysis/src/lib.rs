@@ -15,7 +15,6 @@ pub mod config;
 pub mod fixes;
 mod forms;
 pub mod functions;
-mod hash;
 pub mod minimal;
 pub mod model;
 pub mod refactors;

@@ -110,7 +110,7 @@ pub struct Model<'f> {
     /// The signals, each after every signal its definition reads; signals
     /// on a cycle are left out.
     pub order: Vec<SignalId>,
-    by_name: crate::hash::FastMap<SmolStr, SignalId>,
+    by_name: implica_logic::FastMap<SmolStr, SignalId>,
 }
 
 impl<'f> Model<'f> {

@@ -37,9 +37,9 @@
 
 use crate::config::Config;
 use crate::functions::{DEFAULT_WORK_PER_DEFINITION, Functions};
-use crate::hash::FastMap;
 use crate::model::Model;
 use crate::rules::MinimalPair;
+use implica_logic::FastMap;
 use implica_logic::{BddRef, Budget, DEFAULT_MAX_NODES, Interrupted, TruthTable};
 use implica_syntax::ast::SmolStr;
 use implica_syntax::ast::SourceFile;

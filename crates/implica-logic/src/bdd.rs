@@ -25,44 +25,8 @@
 //! ```
 
 use crate::{BoolExpr, Cover, Cube, Effort, Interrupted};
-use std::collections::HashMap as StdHashMap;
-use std::hash::{BuildHasherDefault, Hasher};
 
-/// A fast hasher for the small integer keys of the node and operation
-/// tables (the default one is built to resist adversarial keys, which
-/// these are not, and was half the time of building diagrams).
-#[derive(Default)]
-struct NodeHasher(u64);
-
-impl Hasher for NodeHasher {
-    fn finish(&self) -> u64 {
-        self.0
-    }
-
-    fn write(&mut self, bytes: &[u8]) {
-        for &b in bytes {
-            self.write_u64(u64::from(b));
-        }
-    }
-
-    fn write_u8(&mut self, i: u8) {
-        self.write_u64(u64::from(i));
-    }
-
-    fn write_u32(&mut self, i: u32) {
-        self.write_u64(u64::from(i));
-    }
-
-    fn write_u64(&mut self, i: u64) {
-        self.0 = (self.0.rotate_left(5) ^ i).wrapping_mul(0x51_7c_c1_b7_27_22_0a_95);
-    }
-
-    fn write_usize(&mut self, i: usize) {
-        self.write_u64(i as u64);
-    }
-}
-
-type HashMap<K, V> = StdHashMap<K, V, BuildHasherDefault<NodeHasher>>;
+type HashMap<K, V> = crate::FastMap<K, V>;
 
 /// A function in a [`Bdd`] manager.
 #[derive(Clone, Copy, PartialEq, Eq, Hash, Debug)]

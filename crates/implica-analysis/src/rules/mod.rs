@@ -138,9 +138,9 @@ pub struct Ctx<'a, 'f> {
     /// Expression definitions as functions of the names they read, by
     /// definition, computed once for the rules that need them.
     pub(crate) forms:
-        crate::hash::FastMap<usize, Option<std::sync::Arc<crate::forms::ExprFunction>>>,
+        implica_logic::FastMap<usize, Option<std::sync::Arc<crate::forms::ExprFunction>>>,
     /// Whether `non-minimal` reports a definition, with the minimal forms.
-    pub(crate) non_minimal: crate::hash::FastMap<usize, Option<std::sync::Arc<MinimalPair>>>,
+    pub(crate) non_minimal: implica_logic::FastMap<usize, Option<std::sync::Arc<MinimalPair>>>,
 }
 
 /// The minimal sum of products and product of sums of an expression.

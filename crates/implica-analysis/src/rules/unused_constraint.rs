@@ -114,7 +114,7 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
     }
     // The input sets through which signals and checks see the constraints.
     let mut readers: Vec<Vec<usize>> = Vec::new();
-    let mut known = crate::hash::FastSet::default();
+    let mut known = implica_logic::FastSet::default();
     let mut add = |r: Vec<usize>| {
         if known.insert(r.clone()) {
             readers.push(r);

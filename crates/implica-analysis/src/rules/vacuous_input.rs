@@ -63,9 +63,9 @@
 
 use super::constant_signal::{WORK_PER_SIGNAL, constants, never_notes};
 use super::{Ctx, Rule};
-use crate::hash::FastMap;
 use crate::model::{Body, Model, SignalId, SignalKind};
 use crate::{Diagnostic, Related, Severity};
+use implica_logic::FastMap;
 use implica_logic::{BddRef, Effort, Interrupted};
 use implica_syntax::Span;
 use implica_syntax::ast::Expr;
