@@ -216,10 +216,10 @@ fn verify_local(
 fn verify_unread_inputs(model: &Model, src: &str, fix: &Fix) -> Option<Result<(), String>> {
     use implica_syntax::ast::{ItemKind, Trivia};
     let first = fix.edits.first()?;
-    let item = model.file.items.iter().find(|it| {
-        let line = crate::rules::statement_line(src, it.span);
-        line.start <= first.span.start && first.span.end <= line.end.max(it.span.end)
-    })?;
+    // The first statement that ends at or after the edit: the one whose
+    // lines it is on, if any (checked below). Statements are in order.
+    let items = &model.file.items;
+    let item = items.get(items.partition_point(|it| it.span.end < first.span.start))?;
     let ItemKind::Input(old_decl) = &item.kind else {
         return None;
     };

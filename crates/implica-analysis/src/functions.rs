@@ -16,9 +16,7 @@
 
 use crate::model::{Body, Model, SignalId};
 use implica_logic::{Bdd, BddRef, Effort, Interrupted};
-use implica_syntax::ast::{
-    BinOp, CellValue, Expr, ExprKind, RowKind, SmolStr, TermEntry, TermKind,
-};
+use implica_syntax::ast::{BinOp, CellValue, Expr, ExprKind, RowKind, TermEntry, TermKind};
 
 /// Why a signal has no known function.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -89,6 +87,14 @@ pub struct Edited {
     /// By signal of the edited document's model.
     pub values: Vec<Value>,
     pub impossible: BddRef,
+}
+
+/// The names of a model's primary inputs, in declaration order.
+fn input_names<'m>(m: &'m Model) -> Vec<&'m str> {
+    m.inputs
+        .iter()
+        .map(|&s| m.signals[s].name.as_str())
+        .collect()
 }
 
 /// Choice variables a new manager has room for, per signal.
@@ -195,13 +201,7 @@ impl Functions {
         work_per_definition: u64,
     ) -> Option<Result<Edited, Interrupted>> {
         let (om, nm) = (old.0, new.0);
-        let names = |m: &Model| -> Vec<String> {
-            m.inputs
-                .iter()
-                .map(|&s| m.signals[s].name.to_string())
-                .collect()
-        };
-        let (old_names, new_names) = (names(om), names(nm));
+        let (old_names, new_names) = (input_names(om), input_names(nm));
         // The old variable of each new input: the same names in the same
         // order, less inputs the old version never reads.
         let mut map = Vec::with_capacity(new_names.len());
@@ -259,13 +259,7 @@ impl Functions {
         work_per_definition: u64,
         cancel: Option<&dyn Fn() -> bool>,
     ) -> Option<Result<(), Interrupted>> {
-        let names = |m: &Model| -> Vec<SmolStr> {
-            m.inputs
-                .iter()
-                .map(|&s| m.signals[s].name.clone())
-                .collect()
-        };
-        if names(old.0) != names(new.0) || self.input_vars.is_some() {
+        if input_names(old.0) != input_names(new.0) || self.input_vars.is_some() {
             return None;
         }
         let saved_values = std::mem::replace(
