@@ -4,9 +4,11 @@
 //! minimum cover by branch and bound: essential columns, row and column
 //! dominance, independent connected components searched apart, and a lower
 //! bound by Lagrangian relaxation (started from an independent set of rows,
-//! read against the true costs and as a whole number of terms). Its reduced
-//! costs drop columns, pick the column to branch on (with it, then without
-//! it) and steer the greedy covers that give the upper bounds.
+//! read against the true costs, as a whole number of terms, and, once the
+//! number of terms is known, with the terms held to it, which bounds the
+//! literals). Its reduced costs drop columns, pick the column to branch on
+//! (with it, then without it) and steer the greedy covers that give the
+//! upper bounds.
 //!
 //! Cost: fewest product terms, then fewest literals.
 
@@ -475,7 +477,7 @@ pub(crate) fn solve_cover(
         packed.push(row.iter().copied());
     }
     let matrix = Matrix {
-        mult: vec![0; rows.len()],
+        mult: vec![[0; 2]; rows.len()],
         rows: packed,
         cost: literals.iter().map(|&l| term + l).collect(),
         id: (0..literals.len() as u32).collect(),
@@ -490,7 +492,7 @@ pub(crate) fn solve_cover(
         max_work: budget.max_work,
         exhausted: false,
     };
-    let part = solver.solve(matrix, ROOT_STEPS);
+    let part = solver.solve(matrix, ROOT);
     let mut columns: Vec<usize> = part.columns.iter().map(|&c| c as usize).collect();
     columns.sort_unstable();
     Solution {
@@ -549,14 +551,16 @@ impl std::ops::Index<usize> for Rows {
 }
 
 /// A covering matrix: each row's columns (ascending local indices), each
-/// column's cost and its index in the whole problem, and a Lagrange
-/// multiplier per row carried from the parent problem as a warm start.
+/// column's cost and its index in the whole problem, and two Lagrange
+/// multipliers per row carried from the parent problem as warm starts (on
+/// the scale of terms, and on the scale of literals once the number of
+/// terms is known; see [`lagrange`]).
 #[derive(Clone)]
 struct Matrix {
     rows: Rows,
     cost: Vec<u64>,
     id: Vec<u32>,
-    mult: Vec<i64>,
+    mult: Vec<[i64; 2]>,
 }
 
 impl Matrix {
@@ -803,19 +807,35 @@ struct Solver {
     exhausted: bool,
 }
 
-/// Subgradient steps at the root of a component and at each node.
-const ROOT_STEPS: usize = 300;
+/// How long the subgradient search runs: at most `steps` steps, the step
+/// halved after every `patience` steps without gain.
+#[derive(Clone, Copy)]
+struct Effort {
+    steps: usize,
+    patience: usize,
+}
+
+/// At the root of a component the bound is worth time: it decides the
+/// certificate, and its reduced costs steer every greedy cover.
+const ROOT: Effort = Effort {
+    steps: 600,
+    patience: 20,
+};
+/// At a node, warm-started from the parent's multipliers.
+const NODE: Effort = Effort {
+    steps: 40,
+    patience: 5,
+};
 /// Most columns chosen by branching along one path, which bounds the
 /// recursion; deeper subtrees are left unsearched (and nothing is proven).
 const MAX_DEPTH: usize = 1000;
-const NODE_STEPS: usize = 40;
 /// Subgradient steps between two covers built from the reduced costs.
 const PRIMAL_EVERY: usize = 10;
 
 impl Solver {
     /// The least-cost cover of `m` (a feasible matrix), each connected
     /// component searched on its own.
-    fn solve(&mut self, m: Matrix, steps: usize) -> Part {
+    fn solve(&mut self, m: Matrix, effort: Effort) -> Part {
         let mut chosen = Vec::new();
         let mut cost = 0;
         let Some(m) = reduce(m, &mut chosen, &mut cost) else {
@@ -843,14 +863,13 @@ impl Solver {
         for mut component in components {
             let col_rows = component.col_rows();
             let mut best = greedy(&component, &col_rows, None);
-            self.work += component.rows.entries.len() as u64 * (steps as u64 + 8);
             // The reduced costs steer greedy covers as the bound rises.
             let bound = lagrange(
                 &mut component,
                 &col_rows,
                 self.term,
                 best.0,
-                steps,
+                effort,
                 &mut |m: &Matrix, reduced: &[i64]| {
                     let cover = greedy(m, &col_rows, Some(reduced));
                     if cover.0 < best.0 {
@@ -859,6 +878,9 @@ impl Solver {
                     best.0
                 },
             );
+            // Each step visits the matrix about twice (the reduced costs
+            // and the subgradient), each greedy cover about once more.
+            self.work += component.rows.entries.len() as u64 * (2 * bound.steps as u64 + 8);
             let bound = bound.cost;
             if bound < best.0 {
                 let better = swap_down(&component, &col_rows, &best.1);
@@ -895,8 +917,9 @@ impl Solver {
         let depth = path.len();
         loop {
             self.nodes += 1;
-            // Reduction and the bound visit the matrix about this often.
-            self.work += m.rows.entries.len() as u64 * (NODE_STEPS as u64 + 8);
+            // Reduction visits the matrix about this often (the bound's
+            // steps are counted as they are taken).
+            self.work += m.rows.entries.len() as u64 * 8;
             if self.nodes > self.max_nodes || self.work > self.max_work {
                 self.exhausted = true;
                 break;
@@ -935,14 +958,10 @@ impl Solver {
             let mut parts = Vec::with_capacity(components.len());
             for mut c in components {
                 let col_rows = c.col_rows();
-                let b = lagrange(
-                    &mut c,
-                    &col_rows,
-                    self.term,
-                    u64::MAX,
-                    NODE_STEPS,
-                    &mut |_, _| u64::MAX,
-                );
+                let b = lagrange(&mut c, &col_rows, self.term, u64::MAX, NODE, &mut |_, _| {
+                    u64::MAX
+                });
+                self.work += c.rows.entries.len() as u64 * 2 * b.steps as u64;
                 bound = bound.saturating_add(b.cost);
                 parts.push(c);
             }
@@ -952,7 +971,7 @@ impl Solver {
             let mut total = cost;
             let mut columns = path.clone();
             for c in parts {
-                let part = self.solve(c, NODE_STEPS);
+                let part = self.solve(c, NODE);
                 total = total.saturating_add(part.cost);
                 columns.extend(part.columns);
             }
@@ -963,14 +982,8 @@ impl Solver {
         }
         let col_rows = m.col_rows();
         let room = best.0 - cost;
-        let bound = lagrange(
-            &mut m,
-            &col_rows,
-            self.term,
-            room,
-            NODE_STEPS,
-            &mut |_, _| room,
-        );
+        let bound = lagrange(&mut m, &col_rows, self.term, room, NODE, &mut |_, _| room);
+        self.work += m.rows.entries.len() as u64 * 2 * bound.steps as u64;
         if bound.cost >= room {
             return None;
         }
@@ -1189,28 +1202,39 @@ fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
 
 /// A lower bound on the cost of a cover, with what it was computed from.
 struct Bound {
-    /// Whole units of cost.
+    /// Whole units of cost: no cover costs less, or every cover costs at
+    /// least the limit the bound was computed against.
     cost: u64,
     /// The Lagrangian value with the true costs, in 1/SCALE units.
     weighted: i64,
     /// The Lagrangian value with every column costing one term, in
     /// 1/SCALE units of a term's cost.
     unit: i64,
+    /// The Lagrangian value with the true costs and the number of columns
+    /// held to what a cover under the limit can have, in 1/SCALE units.
+    counted: i64,
+    /// What `counted` loses when one column outside `chosen` is forced in
+    /// (the dearest chosen column leaves, or nothing when the count has
+    /// room both ways).
+    displaced: i64,
+    /// The columns of the counted relaxation's solution.
+    chosen: Vec<bool>,
     /// Each column's reduced cost (true costs), in 1/SCALE units.
     reduced: Vec<i64>,
+    /// Subgradient steps taken.
+    steps: usize,
 }
 
 impl Bound {
     /// Whether every cover holding column `c`, whose literals cost `literals`,
-    /// costs at least `room` more.
+    /// costs at least `room` more (`room` at most the limit of the bound).
     fn excludes(&self, c: usize, literals: u64, term: u64, room: u64) -> bool {
         let rc = self.reduced[c];
-        if rc > 0
-            && (self.weighted.max(0) as u64)
-                .div_ceil(SCALE as u64)
-                .saturating_add((rc / SCALE) as u64)
-                >= room
-        {
+        let whole = |value: i64| (value.max(0) as u64).div_ceil(SCALE as u64);
+        if rc > 0 && whole(self.weighted).saturating_add((rc / SCALE) as u64) >= room {
+            return true;
+        }
+        if !self.chosen[c] && whole(self.counted + rc - self.displaced) >= room {
             return true;
         }
         let unit_rc = rc - SCALE * literals as i64;
@@ -1222,38 +1246,48 @@ impl Bound {
     }
 }
 
-/// A lower bound on the cost of any cover of `m`, by Lagrangian relaxation
-/// of the covering constraints: for multipliers `u >= 0` on the rows, every
-/// cover costs at least `sum(u) + sum over columns of min(0, cost - u of
-/// its rows)`. The same multipliers against a cost of one term per column
-/// bound the number of terms, which is an integer: rounded up, times the
-/// cost of a term, that often bounds the cost better. Subgradient steps move
-/// `u` (kept in `m.mult`) towards the best bound, stopping early once it
-/// reaches `limit`; every few steps `primal` gets the reduced costs and
-/// returns the cost of the best cover known, which lowers the limit. The
-/// first guess is an independent set of rows (no two share a column), each
-/// row's multiplier its cheapest column.
-fn lagrange(
-    m: &mut Matrix,
-    col_rows: &Rows,
+/// The Lagrangian relaxation of one covering matrix, evaluated at given
+/// multipliers.
+struct Relaxation<'a> {
+    col_rows: &'a Rows,
+    /// Each column's cost, in 1/SCALE units.
+    scaled: Vec<i64>,
+    /// Each column's literals alone, in 1/SCALE units.
+    literal_part: Vec<i64>,
     term: u64,
-    mut limit: u64,
-    steps: usize,
-    primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
-) -> Bound {
-    let (rows, cols) = (m.rows.len(), m.cost.len());
-    let scaled: Vec<i64> = m.cost.iter().map(|&c| c as i64 * SCALE).collect();
-    let literal_part: Vec<i64> = m
-        .cost
-        .iter()
-        .map(|&c| c.saturating_sub(term) as i64 * SCALE)
-        .collect();
-    let unit = SCALE as u64 * term;
-    // Whole units, rounded up: costs are integers.
-    let whole = |value: i64| -> u64 { (value.max(0) as u64).div_ceil(SCALE as u64) };
-    let evaluate = |u: &[i64], reduced: &mut Vec<i64>| -> (u64, i64, i64) {
+}
+
+/// One evaluation of a [`Relaxation`].
+struct Value {
+    /// The bound in whole units of cost (see [`Bound::cost`]).
+    cost: u64,
+    weighted: i64,
+    unit: i64,
+    counted: i64,
+    displaced: i64,
+    /// Fewest columns any cover has, as the unit reading proves.
+    fewest: u64,
+    /// Whether a cover under the limit has exactly `fewest` columns.
+    exact: bool,
+}
+
+impl Relaxation<'_> {
+    /// The bound at multipliers `u`, for covers of fewer than `limit` cost
+    /// and at least `fewest` columns (known from earlier multipliers).
+    /// Fills `reduced` and `chosen` (the counted relaxation's columns);
+    /// `order` is scratch.
+    fn evaluate(
+        &self,
+        u: &[i64],
+        limit: u64,
+        fewest: u64,
+        reduced: &mut Vec<i64>,
+        chosen: &mut Vec<bool>,
+        order: &mut Vec<i64>,
+    ) -> Value {
+        let col_rows = self.col_rows;
         reduced.clear();
-        reduced.extend(col_rows.start.windows(2).zip(&scaled).map(|(w, &c)| {
+        reduced.extend(col_rows.start.windows(2).zip(&self.scaled).map(|(w, &c)| {
             c - col_rows.entries[w[0] as usize..w[1] as usize]
                 .iter()
                 .map(|&r| u[r as usize])
@@ -1261,20 +1295,115 @@ fn lagrange(
         }));
         let total: i64 = u.iter().sum();
         let weighted = total + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>();
-        let unit_value = total
+        let unit = total
             + reduced
                 .iter()
-                .zip(&literal_part)
+                .zip(&self.literal_part)
                 .map(|(&rc, &l)| (rc - l).min(0))
                 .sum::<i64>();
-        let terms = (unit_value.max(0) as u64).div_ceil(unit);
-        (
-            whole(weighted).max(terms.saturating_mul(term)),
+        let unit_scale = SCALE as u64 * self.term;
+        let fewest = fewest.max((unit.max(0) as u64).div_ceil(unit_scale));
+        // Every column costs at least a term, so a cover under the limit
+        // has at most this many; with `fewest`, a cover's value in the
+        // relaxation is at least the sum of the cheapest `fewest` reduced
+        // costs and of further negative ones up to `most`.
+        let cols = reduced.len() as u64;
+        let most = if limit == u64::MAX {
+            cols
+        } else {
+            (limit.saturating_sub(1) / self.term).min(cols)
+        };
+        chosen.clear();
+        chosen.resize(reduced.len(), false);
+        if fewest > most {
+            // No cover has few enough columns to cost less than the limit.
+            return Value {
+                cost: limit,
+                weighted,
+                unit,
+                counted: i64::MAX / 4,
+                displaced: 0,
+                fewest,
+                exact: false,
+            };
+        }
+        let negative = reduced.iter().filter(|&&rc| rc < 0).count() as u64;
+        let take = negative.clamp(fewest, most) as usize;
+        let (counted, displaced) = if take == 0 {
+            (total, 0)
+        } else {
+            order.clear();
+            order.extend_from_slice(reduced);
+            let (_, &mut threshold, _) = order.select_nth_unstable(take - 1);
+            let mut ties = take - reduced.iter().filter(|&&rc| rc < threshold).count();
+            let mut sum = 0i64;
+            for (c, &rc) in reduced.iter().enumerate() {
+                if rc < threshold || (rc == threshold && ties > 0) {
+                    ties -= usize::from(rc == threshold);
+                    chosen[c] = true;
+                    sum += rc;
+                }
+            }
+            // With one column forced in, the others number one fewer
+            // at most and may number one fewer at least.
+            let others = negative.clamp(fewest.saturating_sub(1), most.saturating_sub(1));
+            (
+                total + sum,
+                if others < take as u64 { threshold } else { 0 },
+            )
+        };
+        let whole = |value: i64| (value.max(0) as u64).div_ceil(SCALE as u64);
+        Value {
+            cost: whole(weighted)
+                .max(whole(counted))
+                .max(fewest.saturating_mul(self.term)),
             weighted,
-            unit_value,
-        )
+            unit,
+            counted,
+            displaced,
+            fewest,
+            exact: fewest == most,
+        }
+    }
+}
+
+/// A lower bound on the cost of any cover of `m`, by Lagrangian relaxation
+/// of the covering constraints: for multipliers `u >= 0` on the rows, every
+/// cover costs at least `sum(u) + sum over its columns of (cost - u of
+/// their rows)`. That is read three ways: over all columns of negative
+/// reduced cost; against a cost of one term per column, which bounds the
+/// number of terms, an integer (rounded up, times the cost of a term, that
+/// often bounds the cost better); and over the cheapest reduced costs for a
+/// number of columns between those fewest terms and the most a cover under
+/// `limit` can have, which bounds the literals once the terms are known.
+/// Subgradient steps (of the counted reading) move `u` (kept in `m.mult`)
+/// towards the best bound, stopping early once it reaches `limit` or after
+/// the step has been halved ten times (after every `effort.patience` steps without
+/// gain); every few steps `primal`
+/// gets the reduced costs and returns the cost of the best cover known,
+/// which lowers the limit. The first guess is an independent set of rows
+/// (no two share a column), each row's multiplier its cheapest column.
+fn lagrange(
+    m: &mut Matrix,
+    col_rows: &Rows,
+    term: u64,
+    limit: u64,
+    effort: Effort,
+    primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
+) -> Bound {
+    let (rows, cols) = (m.rows.len(), m.cost.len());
+    let relaxation = Relaxation {
+        col_rows,
+        scaled: m.cost.iter().map(|&c| c as i64 * SCALE).collect(),
+        literal_part: m
+            .cost
+            .iter()
+            .map(|&c| c.saturating_sub(term) as i64 * SCALE)
+            .collect(),
+        term,
     };
-    let mut independent = vec![0i64; rows];
+    // An independent set of rows, each at its cheapest column's price.
+    let mut independent = vec![false; rows];
     {
         let mut order: Vec<usize> = (0..rows).collect();
         order.sort_by_key(|&r| m.rows[r].len());
@@ -1284,90 +1413,236 @@ fn lagrange(
                 for &c in &m.rows[r] {
                     used[c as usize] = true;
                 }
-                independent[r] = m.rows[r]
-                    .iter()
-                    .map(|&c| scaled[c as usize])
-                    .min()
-                    .unwrap_or(0);
+                independent[r] = true;
             }
         }
     }
-    let mut reduced = Vec::with_capacity(cols);
-    let mut u = independent;
-    let mut best = evaluate(&u, &mut reduced);
-    let mut best_u = u.clone();
-    if m.mult.iter().any(|&x| x != 0) {
-        let warm = evaluate(&m.mult, &mut reduced);
-        if (warm.0, warm.1) > (best.0, best.1) {
-            best = warm;
-            best_u = m.mult.clone();
-            u = m.mult.clone();
-        }
-    }
-    let target = if limit == u64::MAX {
-        None
-    } else {
-        Some(limit as f64 * SCALE as f64)
+    let start = |price: &[i64]| -> Vec<i64> {
+        (0..rows)
+            .map(|r| {
+                let cheapest = m.rows[r].iter().map(|&c| price[c as usize]).min();
+                if independent[r] {
+                    cheapest.unwrap_or(0)
+                } else {
+                    0
+                }
+            })
+            .collect()
     };
-    let mut lambda = 1.0f64;
-    let mut stall = 0;
-    let mut value = evaluate(&u, &mut reduced).1;
-    let mut best_weighted = best.1;
-    let mut g: Vec<i64> = Vec::with_capacity(rows);
-    for step_index in 0..steps {
-        if step_index % PRIMAL_EVERY == PRIMAL_EVERY - 1 {
-            limit = limit.min(primal(m, &reduced));
-        }
-        if best.0 >= limit {
-            break;
-        }
-        // Subgradient: 1 minus how often each row is covered by the columns
-        // of negative reduced cost.
-        g.clear();
-        g.resize(rows, 1);
-        for (c, rs) in col_rows.iter().enumerate() {
-            if reduced[c] < 0 {
-                for &r in rs {
-                    g[r as usize] -= 1;
-                }
-            }
-        }
-        let norm: i64 = g.iter().map(|x| x * x).sum();
-        if norm == 0 {
-            break;
-        }
-        let goal = target.unwrap_or(value as f64 * 1.05 + SCALE as f64);
-        let step = lambda * (goal - value as f64).max(SCALE as f64) / norm as f64;
-        for (x, &gr) in u.iter_mut().zip(&g) {
-            *x = (*x + (step * gr as f64) as i64).max(0);
-        }
-        let now = evaluate(&u, &mut reduced);
-        let improved = now.1 > best_weighted;
-        best_weighted = best_weighted.max(now.1);
-        value = now.1;
-        if (now.0, now.1) > (best.0, best.1) {
-            best = now;
-            best_u.clone_from(&u);
-        }
-        if improved {
-            stall = 0;
-        } else {
-            stall += 1;
-            if stall >= 5 {
-                lambda /= 2.0;
-                stall = 0;
-                if lambda < 1e-3 {
-                    break;
-                }
-            }
+    let mut scratch = Buffers {
+        reduced: Vec::with_capacity(cols),
+        chosen: Vec::with_capacity(cols),
+        order: Vec::with_capacity(cols),
+    };
+    let warm = |k: usize| -> Option<Vec<i64>> {
+        let u: Vec<i64> = m.mult.iter().map(|w| w[k]).collect();
+        u.iter().any(|&x| x != 0).then_some(u)
+    };
+    let mut climb = Climb {
+        relaxation: &relaxation,
+        limit,
+        fewest: 0,
+        steps: 0,
+    };
+    let plain = climb.run(
+        &*m,
+        [Some(start(&relaxation.scaled)), warm(0)],
+        false,
+        effort,
+        primal,
+        &mut scratch,
+    );
+    let mut result = plain.clone();
+    let mut literal_scale = m.mult.iter().map(|w| w[1]).collect::<Vec<i64>>();
+    if plain.exact && plain.cost < climb.limit {
+        // The number of columns is known: climb the counted reading, whose
+        // multipliers are on the scale of literals, not terms.
+        let counted = climb.run(
+            &*m,
+            [Some(start(&relaxation.literal_part)), warm(1)],
+            true,
+            effort,
+            primal,
+            &mut scratch,
+        );
+        literal_scale.clone_from(&counted.u);
+        if counted.cost >= plain.cost {
+            result = counted;
         }
     }
-    let (cost, weighted, unit_value) = evaluate(&best_u, &mut reduced);
-    m.mult = best_u;
+    let last = climb.relaxation.evaluate(
+        &result.u,
+        climb.limit,
+        climb.fewest,
+        &mut scratch.reduced,
+        &mut scratch.chosen,
+        &mut scratch.order,
+    );
+    for ((w, &a), &b) in m.mult.iter_mut().zip(&plain.u).zip(&literal_scale) {
+        *w = [a, b];
+    }
     Bound {
-        cost,
-        weighted,
-        unit: unit_value,
-        reduced,
+        cost: last.cost.max(plain.cost),
+        weighted: last.weighted,
+        unit: last.unit,
+        counted: last.counted,
+        displaced: last.displaced,
+        chosen: scratch.chosen,
+        reduced: scratch.reduced,
+        steps: climb.steps,
+    }
+}
+
+/// Buffers of [`Relaxation::evaluate`].
+struct Buffers {
+    reduced: Vec<i64>,
+    chosen: Vec<bool>,
+    order: Vec<i64>,
+}
+
+/// The best multipliers one subgradient climb found, with their bound.
+#[derive(Clone)]
+struct Climbed {
+    u: Vec<i64>,
+    cost: u64,
+    /// Whether the number of columns of a cover under the limit is known.
+    exact: bool,
+}
+
+/// A subgradient search's state across its climbs: the limit (lowered by
+/// the covers found), the fewest columns proven, the steps taken.
+struct Climb<'a, 'b> {
+    relaxation: &'a Relaxation<'b>,
+    limit: u64,
+    fewest: u64,
+    steps: usize,
+}
+
+impl Climb<'_, '_> {
+    /// Subgradient steps from the better of `starts`, following the
+    /// counted reading or the plain one; the plain climb stops once the
+    /// number of columns is known.
+    fn run(
+        &mut self,
+        m: &Matrix,
+        starts: [Option<Vec<i64>>; 2],
+        counted: bool,
+        effort: Effort,
+        primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
+        scratch: &mut Buffers,
+    ) -> Climbed {
+        let rows = m.rows.len();
+        let reading = |v: &Value| if counted { v.counted } else { v.weighted };
+        let eval = |u: &[i64], limit: u64, fewest: &mut u64, scratch: &mut Buffers| {
+            let v = self.relaxation.evaluate(
+                u,
+                limit,
+                *fewest,
+                &mut scratch.reduced,
+                &mut scratch.chosen,
+                &mut scratch.order,
+            );
+            *fewest = (*fewest).max(v.fewest);
+            v
+        };
+        let mut best: Option<(Vec<i64>, Value)> = None;
+        for u in starts.into_iter().flatten() {
+            let v = eval(&u, self.limit, &mut self.fewest, scratch);
+            if best
+                .as_ref()
+                .is_none_or(|(_, b)| (v.cost, reading(&v)) > (b.cost, reading(b)))
+            {
+                best = Some((u, v));
+            }
+        }
+        let (best_u, first) = best.expect("a start is given");
+        let mut u = best_u.clone();
+        // The scratch holds the last evaluation: redo the best start's.
+        let mut now = eval(&u, self.limit, &mut self.fewest, scratch);
+        let mut best = (first.cost, reading(&first), first.exact);
+        let mut best_u = best_u;
+        let mut value = reading(&now);
+        let mut best_value = value;
+        let mut lambda = 1.0f64;
+        let mut stall = 0;
+        let mut g: Vec<i64> = Vec::with_capacity(rows);
+        let mut shifted = Vec::new();
+        for step_index in 0..effort.steps {
+            if (!counted && now.exact) || best.0 >= self.limit {
+                break;
+            }
+            if step_index % PRIMAL_EVERY == PRIMAL_EVERY - 1 {
+                let prices = if counted {
+                    // The number of columns is settled: the greedy cover
+                    // should weigh the literals alone.
+                    let term = self.relaxation.term as i64 * SCALE;
+                    shifted.clear();
+                    shifted.extend(scratch.reduced.iter().map(|&rc| rc - term));
+                    &shifted
+                } else {
+                    &scratch.reduced
+                };
+                self.limit = self.limit.min(primal(m, prices));
+            }
+            self.steps += 1;
+            // Subgradient: 1 minus how often each row is covered by the
+            // relaxation's columns; a row at multiplier 0 is not pushed lower.
+            g.clear();
+            g.resize(rows, 1);
+            for (c, rs) in self.relaxation.col_rows.iter().enumerate() {
+                let taken = if counted {
+                    scratch.chosen[c]
+                } else {
+                    scratch.reduced[c] < 0
+                };
+                if taken {
+                    for &r in rs {
+                        g[r as usize] -= 1;
+                    }
+                }
+            }
+            for (gr, &x) in g.iter_mut().zip(&u) {
+                if x == 0 && *gr < 0 {
+                    *gr = 0;
+                }
+            }
+            let norm: i64 = g.iter().map(|x| x * x).sum();
+            if norm == 0 {
+                break;
+            }
+            let goal = if self.limit == u64::MAX {
+                value as f64 * 1.05 + SCALE as f64
+            } else {
+                self.limit as f64 * SCALE as f64
+            };
+            let step = lambda * (goal - value as f64).max(SCALE as f64) / norm as f64;
+            for (x, &gr) in u.iter_mut().zip(&g) {
+                *x = (*x + (step * gr as f64) as i64).max(0);
+            }
+            now = eval(&u, self.limit, &mut self.fewest, scratch);
+            value = reading(&now);
+            if (now.cost, value) > (best.0, best.1) {
+                best = (now.cost, value, now.exact);
+                best_u.clone_from(&u);
+            }
+            if value > best_value {
+                best_value = value;
+                stall = 0;
+            } else {
+                stall += 1;
+                if stall >= effort.patience {
+                    lambda /= 2.0;
+                    stall = 0;
+                    if lambda < 1e-3 {
+                        break;
+                    }
+                }
+            }
+        }
+        Climbed {
+            u: best_u,
+            cost: best.0,
+            exact: best.2 || now.exact,
+        }
     }
 }

@@ -22,11 +22,20 @@ on stdout, so that a single process serves the whole test:
     of its columns; fewest columns, then fewest literals), solved with
     PySAT's RC2 MaxSAT solver.
 
+  {"op": "mip", "problems": [same as "maxsat"]}
+    -> {"results": [{"columns": [...], "terms": t, "literals": l}]}
+
+    The same minimum, by the HiGHS mixed-integer solver (highspy): first
+    the fewest columns, then, with the count fixed there, the fewest
+    literals; both solved to a proven optimum (no gap allowed), single
+    threaded. Faster than RC2 on the larger problems.
+
 Minterm index bits map to variables most significant first, as in sympy's
 SOPform (variables[0] is the leading bit) and in implica-logic.
 """
 
 import json
+import os
 import sys
 
 from sympy import Not, Symbol, false, symbols, true
@@ -99,7 +108,47 @@ def maxsat(problem):
     return {"columns": chosen, "terms": terms, "literals": lits}
 
 
+def mip(problem):
+    import highspy
+    import numpy as np
+
+    rows, literals = problem["rows"], problem["literals"]
+    n = len(literals)
+    every = np.arange(n, dtype=np.int32)
+    h = highspy.Highs()
+    h.setOptionValue("output_flag", False)
+    h.setOptionValue("threads", 1)
+    # Costs are integers: stop only at a gap below one unit.
+    h.setOptionValue("mip_rel_gap", 0.0)
+    h.setOptionValue("mip_abs_gap", 0.5)
+    h.addVars(n, np.zeros(n), np.ones(n))
+    h.changeColsIntegrality(n, every, np.full(n, highspy.HighsVarType.kInteger))
+    for row in rows:
+        index = np.array(row, dtype=np.int32)
+        h.addRow(1, highspy.kHighsInf, len(index), index, np.ones(len(index)))
+
+    def optimum(costs):
+        h.changeColsCost(n, every, np.array(costs, dtype=float))
+        h.run()
+        if h.getModelStatus() != highspy.HighsModelStatus.kOptimal:
+            raise ValueError(f"HiGHS: {h.modelStatusToString(h.getModelStatus())}")
+        x = h.getSolution().col_value
+        return [c for c in range(n) if x[c] > 0.5]
+
+    terms = len(optimum([1] * n))
+    h.addRow(terms, terms, n, every, np.ones(n))
+    chosen = optimum(literals)
+    if len(chosen) != terms:
+        raise ValueError("HiGHS changed the number of columns")
+    return {"columns": chosen, "terms": terms, "literals": sum(literals[c] for c in chosen)}
+
+
 def main():
+    # Answers go to the real stdout; anything else written there (HiGHS
+    # prints a banner from its library code) goes to stderr instead.
+    answers = os.fdopen(os.dup(sys.stdout.fileno()), "w")
+    sys.stdout.flush()
+    os.dup2(sys.stderr.fileno(), sys.stdout.fileno())
     for line in iter(sys.stdin.readline, ""):
         if not line.strip():
             continue
@@ -108,10 +157,12 @@ def main():
             answer = {"results": [sympy_forms(f) for f in request["functions"]]}
         elif request["op"] == "maxsat":
             answer = {"results": [maxsat(p) for p in request["problems"]]}
+        elif request["op"] == "mip":
+            answer = {"results": [mip(p) for p in request["problems"]]}
         else:
             raise ValueError(f"unknown op {request['op']!r}")
-        sys.stdout.write(json.dumps(answer) + "\n")
-        sys.stdout.flush()
+        answers.write(json.dumps(answer) + "\n")
+        answers.flush()
 
 
 if __name__ == "__main__":
