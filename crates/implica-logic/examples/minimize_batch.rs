@@ -1,11 +1,13 @@
 //! Times the exact minimizer on a batch of functions, for side-by-side
-//! comparisons (`scripts/bench-vs-sympy`).
+//! comparisons (`scripts/bench-vs-sympy`, `scripts/bench-vs-mip`).
 //!
 //! Reads `{"functions": [{"vars": n, "on": [minterm, ...], "dc": [...]}, ...]}`
 //! on stdin and writes `{"results": [{"seconds": s, "runs": k, "terms": t,
-//! "literals": l, "proven_minimal": b}, ...]}` on stdout: `seconds` is the
-//! median of `k` timed calls of `minimize_sop` with the default budget
-//! (repeated until 20 ms have passed and at least 3 calls, or 1 s).
+//! "literals": l, "proven_minimal": b, "lower_bound": n, "primes": p}, ...]}`
+//! on stdout: `seconds` is the median of `k` timed calls of `minimize_sop`
+//! with the default budget (repeated until 20 ms have passed and at least 3
+//! calls, or 1 s); `lower_bound` is the fewest terms any cover needs, as
+//! proven.
 //!
 //! ```sh
 //! cargo run --release -p implica-logic --example minimize_batch < functions.json
@@ -68,6 +70,8 @@ fn run(input: &str) -> Result<Value, String> {
                 "terms": r.cover.len(),
                 "literals": r.cover.literals(),
                 "proven_minimal": r.proven_minimal,
+                "lower_bound": r.lower_bound,
+                "primes": r.primes,
             }),
             Err(e) => json!({
                 "seconds": median.as_secs_f64(),
