@@ -26,10 +26,13 @@ pub struct Budget {
     /// Most branch-and-bound nodes explored; past this the best cover found
     /// so far is returned with its lower bound.
     pub max_nodes: u64,
-    /// Most work in the cover search, counted in covering-matrix entries
+    /// Most work in the cover search (its bounds, the refinement of the
+    /// best cover, branch and bound), counted in covering-matrix entries
     /// visited (a measure of time that does not depend on the machine:
-    /// about 10^7 entries take 0.07 s on the machine of docs/benchmarks.md).
-    /// Past this, as past `max_nodes`.
+    /// about 10^7 entries take 0.03 to 0.05 s on the machine of
+    /// docs/benchmarks.md). Past this, as past `max_nodes`; the root of
+    /// each independent part of the matrix still gets a bound and a cover
+    /// (at least 50 subgradient steps).
     pub max_work: u64,
 }
 
@@ -39,7 +42,7 @@ impl Default for Budget {
             max_vars: 16,
             max_primes: 200_000,
             max_nodes: 200_000,
-            max_work: 10_000_000,
+            max_work: 20_000_000,
         }
     }
 }
@@ -818,7 +821,7 @@ struct Effort {
 /// At the root of a component the bound is worth time: it decides the
 /// certificate, and its reduced costs steer every greedy cover.
 const ROOT: Effort = Effort {
-    steps: 600,
+    steps: 400,
     patience: 20,
 };
 /// At a node, warm-started from the parent's multipliers.
@@ -826,11 +829,27 @@ const NODE: Effort = Effort {
     steps: 40,
     patience: 5,
 };
+/// The refinement of a component's best cover: from this many rows, with
+/// these shares (in percent) of the rows kept covered by the fixed columns,
+/// one round each, and this effort for the rest's bound.
+const REFINE_ROWS: usize = 64;
+const REFINE_SHARES: [usize; 6] = [30, 40, 50, 60, 70, 80];
+const REFINE: Effort = Effort {
+    steps: 150,
+    patience: 10,
+};
 /// Most columns chosen by branching along one path, which bounds the
 /// recursion; deeper subtrees are left unsearched (and nothing is proven).
 const MAX_DEPTH: usize = 1000;
 /// Subgradient steps between two covers built from the reduced costs.
 const PRIMAL_EVERY: usize = 10;
+/// Passes over the matrix per subgradient step when covers are built from
+/// the reduced costs: the reduced costs, the subgradient, and a tenth of
+/// a greedy cover (about ten passes: its heap and its redundancy check).
+const PRIMAL_PASSES: u64 = 3;
+/// Fewest subgradient steps at the root of a component and in a
+/// refinement, whatever the work left.
+const MIN_STEPS: usize = 50;
 
 impl Solver {
     /// The least-cost cover of `m` (a feasible matrix), each connected
@@ -864,6 +883,9 @@ impl Solver {
             let col_rows = component.col_rows();
             let mut best = greedy(&component, &col_rows, None);
             // The reduced costs steer greedy covers as the bound rises.
+            // The root's bound takes at most half the work left, so that the
+            // refinement and the search get the other half.
+            let effort = self.affordable(effort, component.rows.entries.len(), 2);
             let bound = lagrange(
                 &mut component,
                 &col_rows,
@@ -878,16 +900,18 @@ impl Solver {
                     best.0
                 },
             );
-            // Each step visits the matrix about twice (the reduced costs
-            // and the subgradient), each greedy cover about once more.
-            self.work += component.rows.entries.len() as u64 * (2 * bound.steps as u64 + 8);
-            let bound = bound.cost;
-            if bound < best.0 {
+            self.work +=
+                component.rows.entries.len() as u64 * (PRIMAL_PASSES * bound.steps as u64 + 8);
+            if bound.cost < best.0 {
                 let better = swap_down(&component, &col_rows, &best.1);
                 if better.0 < best.0 {
                     best = better;
                 }
             }
+            if bound.cost < best.0 && self.depth == 0 && component.rows.len() >= REFINE_ROWS {
+                self.refine(&component, &col_rows, &bound.reduced, &mut best);
+            }
+            let bound = bound.cost;
             let outer_cut = std::mem::take(&mut self.cut);
             if bound < best.0 {
                 self.branch(component, 0, &mut Vec::new(), &mut best);
@@ -900,6 +924,95 @@ impl Solver {
             part.proven &= proven;
         }
         part
+    }
+
+    /// `effort` with no more steps than the work left, divided by `share`,
+    /// affords (at `PRIMAL_PASSES` passes over `entries` each), but at least
+    /// `MIN_STEPS`, so that every component gets a bound and a cover.
+    fn affordable(&self, effort: Effort, entries: usize, share: u64) -> Effort {
+        let left = self.max_work.saturating_sub(self.work) / share;
+        let steps = left / (PRIMAL_PASSES * entries.max(1) as u64);
+        Effort {
+            steps: (steps as usize).clamp(MIN_STEPS.min(effort.steps), effort.steps),
+            ..effort
+        }
+    }
+
+    /// Fix and solve again from the best cover (after the refinement of
+    /// Caprara, Fischetti and Toth's set-covering heuristic, 1999): keep the
+    /// columns of the best cover of least reduced cost until they cover a
+    /// share of the rows, cover the rest by the relaxation's greedy covers
+    /// and exchanges, and keep the whole when it is cheaper. The share grows
+    /// each round, so later rounds search closer to the best cover.
+    fn refine(&mut self, m: &Matrix, col_rows: &Rows, reduced: &[i64], best: &mut (u64, Vec<u32>)) {
+        let rows = m.rows.len();
+        for share in REFINE_SHARES {
+            if self.work > self.max_work {
+                break;
+            }
+            let mut columns: Vec<usize> = best
+                .1
+                .iter()
+                .filter_map(|id| m.id.binary_search(id).ok())
+                .collect();
+            columns.sort_by_key(|&c| reduced[c]);
+            let mut covered = vec![false; rows];
+            let mut count = 0;
+            let mut chosen = Vec::new();
+            let mut cost = 0;
+            let mut col_live = vec![true; m.cost.len()];
+            for c in columns {
+                if count * 100 >= rows * share {
+                    break;
+                }
+                col_live[c] = false;
+                chosen.push(m.id[c]);
+                cost += m.cost[c];
+                for &r in &col_rows[c] {
+                    if !covered[r as usize] {
+                        covered[r as usize] = true;
+                        count += 1;
+                    }
+                }
+            }
+            let row_live: Vec<bool> = covered.iter().map(|&c| !c).collect();
+            let Some(mut rest) = reduce(m.restrict(&row_live, &col_live), &mut chosen, &mut cost)
+            else {
+                continue;
+            };
+            if !rest.rows.is_empty() {
+                let rest_rows = rest.col_rows();
+                let mut found = greedy(&rest, &rest_rows, None);
+                let effort = self.affordable(REFINE, rest.rows.entries.len(), 1);
+                let b = lagrange(
+                    &mut rest,
+                    &rest_rows,
+                    self.term,
+                    found.0,
+                    effort,
+                    &mut |m: &Matrix, reduced: &[i64]| {
+                        let cover = greedy(m, &rest_rows, Some(reduced));
+                        if cover.0 < found.0 {
+                            found = cover;
+                        }
+                        found.0
+                    },
+                );
+                self.work += rest.rows.entries.len() as u64 * (PRIMAL_PASSES * b.steps as u64 + 8);
+                let better = swap_down(&rest, &rest_rows, &found.1);
+                if better.0 < found.0 {
+                    found = better;
+                }
+                cost += found.0;
+                chosen.extend(found.1);
+            }
+            if cost < best.0 {
+                chosen.sort_unstable();
+                let cover = without_redundant(m, col_rows, &chosen);
+                let better = swap_down(m, col_rows, &cover.1);
+                *best = if better.0 < cover.0 { better } else { cover };
+            }
+        }
     }
 
     /// Branch and bound below a node whose chosen columns (`path`) cost
@@ -1091,6 +1204,35 @@ fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32
     }
     let cost = keep.iter().map(|&c| m.cost[c]).sum();
     (cost, keep.into_iter().map(|c| m.id[c]).collect())
+}
+
+/// A cover (of column ids) without the columns whose rows the others also
+/// cover, dearest dropped first.
+fn without_redundant(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
+    let mut columns: Vec<usize> = cover
+        .iter()
+        .filter_map(|id| m.id.binary_search(id).ok())
+        .collect();
+    let mut times = vec![0u32; m.rows.len()];
+    for &c in &columns {
+        for &r in &col_rows[c] {
+            times[r as usize] += 1;
+        }
+    }
+    columns.sort_by_key(|&c| std::cmp::Reverse(m.cost[c]));
+    columns.retain(|&c| {
+        if col_rows[c].iter().all(|&r| times[r as usize] > 1) {
+            for &r in &col_rows[c] {
+                times[r as usize] -= 1;
+            }
+            false
+        } else {
+            true
+        }
+    });
+    columns.sort_unstable();
+    let cost = columns.iter().map(|&c| m.cost[c]).sum();
+    (cost, columns.into_iter().map(|c| m.id[c]).collect())
 }
 
 /// Local improvement of a cover (of column ids): a column outside it that holds every row that only chosen
