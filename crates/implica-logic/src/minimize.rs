@@ -1474,9 +1474,21 @@ impl Relaxation<'_> {
         let (counted, displaced) = if take == 0 {
             (total, 0)
         } else {
-            order.clear();
-            order.extend_from_slice(reduced);
-            let (_, &mut threshold, _) = order.select_nth_unstable(take - 1);
+            // The `take`-th least reduced cost: the greatest negative one
+            // when all negative ones are taken (most often), else by
+            // selection.
+            let threshold = if take as u64 == negative {
+                reduced
+                    .iter()
+                    .copied()
+                    .filter(|&rc| rc < 0)
+                    .max()
+                    .unwrap_or(0)
+            } else {
+                order.clear();
+                order.extend_from_slice(reduced);
+                *order.select_nth_unstable(take - 1).1
+            };
             let mut ties = take - reduced.iter().filter(|&&rc| rc < threshold).count();
             let mut sum = 0i64;
             for (c, &rc) in reduced.iter().enumerate() {
