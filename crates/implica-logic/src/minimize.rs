@@ -1416,25 +1416,32 @@ struct Value {
 impl Relaxation<'_> {
     /// The bound at multipliers `u`, for covers of fewer than `limit` cost
     /// and at least `fewest` columns (known from earlier multipliers).
-    /// Fills `reduced` and `chosen` (the counted relaxation's columns);
-    /// `order` is scratch.
-    fn evaluate(
-        &self,
-        u: &[i64],
-        limit: u64,
-        fewest: u64,
-        reduced: &mut Vec<i64>,
-        chosen: &mut Vec<bool>,
-        order: &mut Vec<i64>,
-    ) -> Value {
+    /// Fills the buffers: the reduced costs, the counted relaxation's
+    /// columns, the plain reading's subgradient.
+    fn evaluate(&self, u: &[i64], limit: u64, fewest: u64, buf: &mut Buffers) -> Value {
         let col_rows = self.col_rows;
+        let Buffers {
+            reduced,
+            chosen,
+            order,
+            plain,
+        } = buf;
         reduced.clear();
-        reduced.extend(col_rows.start.windows(2).zip(&self.scaled).map(|(w, &c)| {
-            c - col_rows.entries[w[0] as usize..w[1] as usize]
-                .iter()
-                .map(|&r| u[r as usize])
-                .sum::<i64>()
-        }));
+        // The plain reading's subgradient comes with the reduced costs, in
+        // the same pass: 1 minus how often each row is covered by the
+        // columns of negative reduced cost.
+        plain.clear();
+        plain.resize(u.len(), 1);
+        for (w, &c) in col_rows.start.windows(2).zip(&self.scaled) {
+            let rows = &col_rows.entries[w[0] as usize..w[1] as usize];
+            let rc = c - rows.iter().map(|&r| u[r as usize]).sum::<i64>();
+            if rc < 0 {
+                for &r in rows {
+                    plain[r as usize] -= 1;
+                }
+            }
+            reduced.push(rc);
+        }
         let total: i64 = u.iter().sum();
         let weighted = total + reduced.iter().filter(|&&rc| rc < 0).sum::<i64>();
         let unit = total
@@ -1587,6 +1594,7 @@ fn lagrange(
         reduced: Vec::with_capacity(cols),
         chosen: Vec::with_capacity(cols),
         order: Vec::with_capacity(cols),
+        plain: Vec::with_capacity(rows),
     };
     let warm = |k: usize| -> Option<Vec<i64>> {
         let u: Vec<i64> = m.mult.iter().map(|w| w[k]).collect();
@@ -1624,14 +1632,9 @@ fn lagrange(
             result = counted;
         }
     }
-    let last = climb.relaxation.evaluate(
-        &result.u,
-        climb.limit,
-        climb.fewest,
-        &mut scratch.reduced,
-        &mut scratch.chosen,
-        &mut scratch.order,
-    );
+    let last = climb
+        .relaxation
+        .evaluate(&result.u, climb.limit, climb.fewest, &mut scratch);
     for ((w, &a), &b) in m.mult.iter_mut().zip(&plain.u).zip(&literal_scale) {
         *w = [a, b];
     }
@@ -1651,7 +1654,10 @@ fn lagrange(
 struct Buffers {
     reduced: Vec<i64>,
     chosen: Vec<bool>,
+    /// Scratch of the selection.
     order: Vec<i64>,
+    /// The plain reading's subgradient.
+    plain: Vec<i64>,
 }
 
 /// The best multipliers one subgradient climb found, with their bound.
@@ -1688,14 +1694,7 @@ impl Climb<'_, '_> {
         let rows = m.rows.len();
         let reading = |v: &Value| if counted { v.counted } else { v.weighted };
         let eval = |u: &[i64], limit: u64, fewest: &mut u64, scratch: &mut Buffers| {
-            let v = self.relaxation.evaluate(
-                u,
-                limit,
-                *fewest,
-                &mut scratch.reduced,
-                &mut scratch.chosen,
-                &mut scratch.order,
-            );
+            let v = self.relaxation.evaluate(u, limit, *fewest, scratch);
             *fewest = (*fewest).max(v.fewest);
             v
         };
@@ -1741,19 +1740,18 @@ impl Climb<'_, '_> {
             self.steps += 1;
             // Subgradient: 1 minus how often each row is covered by the
             // relaxation's columns; a row at multiplier 0 is not pushed lower.
-            g.clear();
-            g.resize(rows, 1);
-            for (c, rs) in self.relaxation.col_rows.iter().enumerate() {
-                let taken = if counted {
-                    scratch.chosen[c]
-                } else {
-                    scratch.reduced[c] < 0
-                };
-                if taken {
-                    for &r in rs {
-                        g[r as usize] -= 1;
+            if counted {
+                g.clear();
+                g.resize(rows, 1);
+                for (c, rs) in self.relaxation.col_rows.iter().enumerate() {
+                    if scratch.chosen[c] {
+                        for &r in rs {
+                            g[r as usize] -= 1;
+                        }
                     }
                 }
+            } else {
+                g.clone_from(&scratch.plain);
             }
             for (gr, &x) in g.iter_mut().zip(&u) {
                 if x == 0 && *gr < 0 {
