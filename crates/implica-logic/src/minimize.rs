@@ -885,33 +885,10 @@ impl Solver {
         }
         for mut component in components {
             let col_rows = component.col_rows();
-            let mut best = greedy(&component, &col_rows, None);
-            // The reduced costs steer greedy covers as the bound rises.
             // The root's bound takes at most half the work left, so that the
             // refinement and the search get the other half.
             let effort = self.affordable(effort, component.rows.entries.len(), 2);
-            let bound = lagrange(
-                &mut component,
-                &col_rows,
-                self.term,
-                best.0,
-                effort,
-                &mut |m: &Matrix, reduced: &[i64]| {
-                    let cover = greedy(m, &col_rows, Some(reduced));
-                    if cover.0 < best.0 {
-                        best = cover;
-                    }
-                    best.0
-                },
-            );
-            self.work +=
-                component.rows.entries.len() as u64 * (PRIMAL_PASSES * bound.steps as u64 + 8);
-            if bound.cost < best.0 {
-                let better = swap_down(&component, &col_rows, &best.1);
-                if better.0 < best.0 {
-                    best = better;
-                }
-            }
+            let (mut best, bound) = self.cover_and_bound(&mut component, &col_rows, effort);
             if bound.cost < best.0 && self.depth == 0 && component.rows.len() >= REFINE_ROWS {
                 self.refine(&component, &col_rows, &bound.reduced, &mut best);
             }
@@ -945,6 +922,40 @@ impl Solver {
             part.proven &= proven;
         }
         part
+    }
+
+    /// A cover of `m` and a bound on its cost: greedy covers steered by the
+    /// reduced costs as the bound rises, the best then improved by
+    /// exchanges unless the bound proves it.
+    fn cover_and_bound(
+        &mut self,
+        m: &mut Matrix,
+        col_rows: &Rows,
+        effort: Effort,
+    ) -> ((u64, Vec<u32>), Bound) {
+        let mut best = greedy(m, col_rows, None);
+        let bound = lagrange(
+            m,
+            col_rows,
+            self.term,
+            best.0,
+            effort,
+            &mut |m: &Matrix, reduced: &[i64]| {
+                let cover = greedy(m, col_rows, Some(reduced));
+                if cover.0 < best.0 {
+                    best = cover;
+                }
+                best.0
+            },
+        );
+        self.work += m.rows.entries.len() as u64 * (PRIMAL_PASSES * bound.steps as u64 + 8);
+        if bound.cost < best.0 {
+            let better = swap_down(m, col_rows, &best.1);
+            if better.0 < best.0 {
+                best = better;
+            }
+        }
+        (best, bound)
     }
 
     /// `effort` with no more steps than the work left, divided by `share`,
@@ -1003,27 +1014,8 @@ impl Solver {
             };
             if !rest.rows.is_empty() {
                 let rest_rows = rest.col_rows();
-                let mut found = greedy(&rest, &rest_rows, None);
                 let effort = self.affordable(REFINE, rest.rows.entries.len(), 1);
-                let b = lagrange(
-                    &mut rest,
-                    &rest_rows,
-                    self.term,
-                    found.0,
-                    effort,
-                    &mut |m: &Matrix, reduced: &[i64]| {
-                        let cover = greedy(m, &rest_rows, Some(reduced));
-                        if cover.0 < found.0 {
-                            found = cover;
-                        }
-                        found.0
-                    },
-                );
-                self.work += rest.rows.entries.len() as u64 * (PRIMAL_PASSES * b.steps as u64 + 8);
-                let better = swap_down(&rest, &rest_rows, &found.1);
-                if better.0 < found.0 {
-                    found = better;
-                }
+                let (found, _) = self.cover_and_bound(&mut rest, &rest_rows, effort);
                 cost += found.0;
                 chosen.extend(found.1);
             }

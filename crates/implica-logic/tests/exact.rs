@@ -501,6 +501,24 @@ fn functions_of_no_inputs() {
     assert!(r.cover.is_empty() && r.proven_minimal);
 }
 
+/// A random function of the benchmark's shape (each minterm on with
+/// probability 3/8, a don't-care with probability 1/4), from the xorshift64
+/// state `x`: the on-set and the don't-cares.
+fn random_function(vars: usize, x: &mut u64) -> (TruthTable, TruthTable) {
+    let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+    for m in 0..(1usize << vars) {
+        *x ^= *x << 13;
+        *x ^= *x >> 7;
+        *x ^= *x << 17;
+        match *x % 8 {
+            0..=2 => on.set(m, true),
+            3 | 4 => dc.set(m, true),
+            _ => {}
+        }
+    }
+    (on, dc)
+}
+
 #[test]
 fn larger_random_functions_get_valid_covers_and_bounds() {
     // Past what the search proves, the result is still a cover of the
@@ -508,17 +526,7 @@ fn larger_random_functions_get_valid_covers_and_bounds() {
     // minterm, with a lower bound no larger than it.
     let mut x = 0x0123_4567_89AB_CDEFu64;
     for vars in [10usize, 10, 12] {
-        let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
-        for m in 0..(1usize << vars) {
-            x ^= x << 13;
-            x ^= x >> 7;
-            x ^= x << 17;
-            match x % 8 {
-                0..=2 => on.set(m, true),
-                3 | 4 => dc.set(m, true),
-                _ => {}
-            }
-        }
+        let (on, dc) = random_function(vars, &mut x);
         let r = minimize_sop(&on, &dc, &Budget::default()).unwrap();
         let f = r.cover.truth_table();
         assert!(f.covers(&on.and_not(&dc)) && on.or(&dc).covers(&f));
@@ -540,17 +548,7 @@ fn a_budget_cut_short_anywhere_keeps_the_certificate_true() {
     let mut x = 0x7A3F_0C21_9E55_D1B7u64;
     let (mut checked, mut cut_short) = (0, 0);
     for vars in [8usize, 8, 8, 9, 9, 9] {
-        let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
-        for m in 0..(1usize << vars) {
-            x ^= x << 13;
-            x ^= x >> 7;
-            x ^= x << 17;
-            match x % 8 {
-                0..=2 => on.set(m, true),
-                3 | 4 => dc.set(m, true),
-                _ => {}
-            }
-        }
+        let (on, dc) = random_function(vars, &mut x);
         let exact = minimize_sop(&on, &dc, &Budget::default()).unwrap();
         if !exact.proven_minimal {
             continue;
