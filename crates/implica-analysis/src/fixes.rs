@@ -36,6 +36,19 @@ pub fn apply(src: &str, edits: &[Edit]) -> Result<String, String> {
     Ok(out)
 }
 
+/// `src[start..end]` with the edits applied, each of which lies within it
+/// (its offsets are into `src`).
+fn apply_within(src: &str, start: usize, end: usize, edits: &[Edit]) -> Result<String, String> {
+    let local: Vec<Edit> = edits
+        .iter()
+        .map(|e| Edit {
+            span: implica_syntax::Span::new(e.span.start - start, e.span.end - start),
+            new_text: e.new_text.clone(),
+        })
+        .collect();
+    apply(&src[start..end], &local)
+}
+
 /// The signal of the fixed document that stands for signal `s` of the
 /// original: `None` for an input, or for an intermediate (or undefined)
 /// signal the fix removed; an error for an output it would leave undefined.
@@ -152,16 +165,7 @@ fn verify_local(
         return None;
     }
     // The statement alone, edited, parsed on its own.
-    let base = item.span.start;
-    let local: Vec<Edit> = fix
-        .edits
-        .iter()
-        .map(|e| Edit {
-            span: implica_syntax::Span::new(e.span.start - base, e.span.end - base),
-            new_text: e.new_text.clone(),
-        })
-        .collect();
-    let text = match apply(&src[item.span.start..item.span.end], &local) {
+    let text = match apply_within(src, item.span.start, item.span.end, &fix.edits) {
         Ok(t) => t,
         Err(e) => return Some(Err(e)),
     };
@@ -245,15 +249,7 @@ fn verify_unread_inputs(model: &Model, src: &str, fix: &Fix) -> Option<Result<()
     {
         return None;
     }
-    let local: Vec<Edit> = fix
-        .edits
-        .iter()
-        .map(|e| Edit {
-            span: implica_syntax::Span::new(e.span.start - start, e.span.end - start),
-            new_text: e.new_text.clone(),
-        })
-        .collect();
-    let text = match apply(&src[start..end], &local) {
+    let text = match apply_within(src, start, end, &fix.edits) {
         Ok(t) => t,
         Err(e) => return Some(Err(e)),
     };
