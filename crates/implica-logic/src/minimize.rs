@@ -1203,35 +1203,20 @@ fn greedy(m: &Matrix, col_rows: &Rows, reduced: Option<&[i64]>) -> (u64, Vec<u32
             }
         }
     }
-    // Most expensive first: drop a column when every row it covers is covered twice.
-    picked.sort_by_key(|&c| std::cmp::Reverse(m.cost[c]));
-    let mut keep = Vec::new();
-    for c in picked {
-        if col_rows[c].iter().all(|&r| times[r as usize] > 1) {
-            for &r in &col_rows[c] {
-                times[r as usize] -= 1;
-            }
-        } else {
-            keep.push(c);
-        }
-    }
+    let keep = drop_redundant(m, col_rows, picked, &mut times);
     let cost = keep.iter().map(|&c| m.cost[c]).sum();
     (cost, keep.into_iter().map(|c| m.id[c]).collect())
 }
 
-/// A cover (of column ids) without the columns whose rows the others also
-/// cover, dearest dropped first.
-fn without_redundant(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
-    let mut columns: Vec<usize> = cover
-        .iter()
-        .filter_map(|id| m.id.binary_search(id).ok())
-        .collect();
-    let mut times = vec![0u32; m.rows.len()];
-    for &c in &columns {
-        for &r in &col_rows[c] {
-            times[r as usize] += 1;
-        }
-    }
+/// The columns (local indices) without those whose rows the others also
+/// cover, most expensive dropped first, in that order; `times` counts how
+/// often the columns cover each row.
+fn drop_redundant(
+    m: &Matrix,
+    col_rows: &Rows,
+    mut columns: Vec<usize>,
+    times: &mut [u32],
+) -> Vec<usize> {
     columns.sort_by_key(|&c| std::cmp::Reverse(m.cost[c]));
     columns.retain(|&c| {
         if col_rows[c].iter().all(|&r| times[r as usize] > 1) {
@@ -1243,6 +1228,23 @@ fn without_redundant(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u3
             true
         }
     });
+    columns
+}
+
+/// A cover (of column ids) without the columns whose rows the others also
+/// cover, dearest dropped first.
+fn without_redundant(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
+    let columns: Vec<usize> = cover
+        .iter()
+        .filter_map(|id| m.id.binary_search(id).ok())
+        .collect();
+    let mut times = vec![0u32; m.rows.len()];
+    for &c in &columns {
+        for &r in &col_rows[c] {
+            times[r as usize] += 1;
+        }
+    }
+    let mut columns = drop_redundant(m, col_rows, columns, &mut times);
     columns.sort_unstable();
     let cost = columns.iter().map(|&c| m.cost[c]).sum();
     (cost, columns.into_iter().map(|c| m.id[c]).collect())
@@ -1413,6 +1415,7 @@ struct Relaxation<'a> {
 }
 
 /// One evaluation of a [`Relaxation`].
+#[derive(Clone, Copy)]
 struct Value {
     /// The bound in whole units of cost (see [`Bound::cost`]).
     cost: u64,
@@ -1627,29 +1630,34 @@ fn lagrange(
         primal,
         &mut scratch,
     );
-    let mut result = plain.clone();
-    let mut literal_scale = m.mult.iter().map(|w| w[1]).collect::<Vec<i64>>();
-    if plain.exact && plain.cost < climb.limit {
-        // The number of columns is known: climb the counted reading, whose
-        // multipliers are on the scale of literals, not terms.
-        let counted = climb.run(
+    // Once the number of columns is known, the counted reading is climbed,
+    // its multipliers on the scale of literals, not terms.
+    let counted = (plain.exact && plain.cost < climb.limit).then(|| {
+        climb.run(
             &*m,
             [Some(start(&relaxation.literal_part)), warm(1)],
             true,
             effort,
             primal,
             &mut scratch,
-        );
-        literal_scale.clone_from(&counted.u);
-        if counted.cost >= plain.cost {
-            result = counted;
-        }
-    }
+        )
+    });
+    let result = match &counted {
+        Some(c) if c.cost >= plain.cost => c,
+        _ => &plain,
+    };
     let last = climb
         .relaxation
         .evaluate(&result.u, climb.limit, climb.fewest, &mut scratch);
-    for ((w, &a), &b) in m.mult.iter_mut().zip(&plain.u).zip(&literal_scale) {
-        *w = [a, b];
+    // The warm starts of the children: the counted climb's multipliers
+    // replace those the parent passed down only when it ran.
+    if let Some(c) = &counted {
+        for (w, &b) in m.mult.iter_mut().zip(&c.u) {
+            w[1] = b;
+        }
+    }
+    for (w, &a) in m.mult.iter_mut().zip(&plain.u) {
+        w[0] = a;
     }
     Bound {
         cost: last.cost.max(plain.cost),
@@ -1674,7 +1682,6 @@ struct Buffers {
 }
 
 /// The best multipliers one subgradient climb found, with their bound.
-#[derive(Clone)]
 struct Climbed {
     u: Vec<i64>,
     cost: u64,
@@ -1712,21 +1719,26 @@ impl Climb<'_, '_> {
             v
         };
         let mut best: Option<(Vec<i64>, Value)> = None;
+        let mut best_is_last = false;
         for u in starts.into_iter().flatten() {
             let v = eval(&u, self.limit, &mut self.fewest, scratch);
-            if best
+            best_is_last = best
                 .as_ref()
-                .is_none_or(|(_, b)| (v.cost, reading(&v)) > (b.cost, reading(b)))
-            {
+                .is_none_or(|(_, b)| (v.cost, reading(&v)) > (b.cost, reading(b)));
+            if best_is_last {
                 best = Some((u, v));
             }
         }
-        let (best_u, first) = best.expect("a start is given");
+        let (mut best_u, first) = best.expect("a start is given");
         let mut u = best_u.clone();
-        // The scratch holds the last evaluation: redo the best start's.
-        let mut now = eval(&u, self.limit, &mut self.fewest, scratch);
+        // The buffers hold the last evaluation: redo the best start's
+        // unless it was the last.
+        let mut now = if best_is_last {
+            first
+        } else {
+            eval(&u, self.limit, &mut self.fewest, scratch)
+        };
         let mut best = (first.cost, reading(&first), first.exact);
-        let mut best_u = best_u;
         let mut value = reading(&now);
         let mut best_value = value;
         let mut lambda = 1.0f64;
