@@ -425,6 +425,15 @@ pub(crate) fn non_minimal_applies(
     budget: &Budget,
 ) -> Option<(Minimized, Minimized)> {
     let written = written_literals(e);
+    // Every two-level form reads each input the function needs at least
+    // once; when the expression reads no more, no form can have fewer
+    // literals, and the minimization is not needed to say so.
+    let needed = (0..f.table.vars())
+        .filter(|&i| f.table.depends_on_within(i, &f.reachable))
+        .count();
+    if needed >= written {
+        return None;
+    }
     let (sop, pos) = minimal_forms(f, budget)?;
     let best = sop.cover.literals().min(pos.cover.literals());
     if best >= written || best == 0 {

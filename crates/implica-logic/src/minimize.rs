@@ -12,6 +12,7 @@
 //!
 //! Cost: fewest product terms, then fewest literals.
 
+use crate::truth_table::{LOW_HALF, swap_bits};
 use crate::{Cover, Cube, TruthTable};
 
 /// Limits of one minimization. Past them the result is not proven minimal
@@ -142,21 +143,6 @@ fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), T
 }
 
 /// Masks of the bit positions `l` of a 64-bit word whose index bit `b` is 0.
-const LOW_HALF: [u64; 6] = [
-    0x5555_5555_5555_5555,
-    0x3333_3333_3333_3333,
-    0x0F0F_0F0F_0F0F_0F0F,
-    0x00FF_00FF_00FF_00FF,
-    0x0000_FFFF_0000_FFFF,
-    0x0000_0000_FFFF_FFFF,
-];
-
-/// Each bit of `x` exchanged with the bit whose index differs in bit `b` (< 6).
-fn swap_bits(x: u64, b: usize) -> u64 {
-    let s = 1u32 << b;
-    ((x & LOW_HALF[b]) << s) | ((x >> s) & LOW_HALF[b])
-}
-
 fn table_words(t: &TruthTable) -> Vec<u64> {
     let mut words = vec![0u64; (1usize << t.vars()).div_ceil(64)];
     for m in t.minterms() {

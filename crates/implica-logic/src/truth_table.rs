@@ -32,6 +32,23 @@ impl std::fmt::Debug for TruthTable {
     }
 }
 
+/// Per bit position `b` < 6 within a word, the bits whose index has bit
+/// `b` clear.
+pub(crate) const LOW_HALF: [u64; 6] = [
+    0x5555_5555_5555_5555,
+    0x3333_3333_3333_3333,
+    0x0F0F_0F0F_0F0F_0F0F,
+    0x00FF_00FF_00FF_00FF,
+    0x0000_FFFF_0000_FFFF,
+    0x0000_0000_FFFF_FFFF,
+];
+
+/// Each bit of `x` exchanged with the bit whose index differs in bit `b` (< 6).
+pub(crate) fn swap_bits(x: u64, b: usize) -> u64 {
+    let s = 1u32 << b;
+    ((x & LOW_HALF[b]) << s) | ((x >> s) & LOW_HALF[b])
+}
+
 /// Word `w` of variable `i` (0 = most significant) over `vars` inputs:
 /// bit `k` is bit `vars - 1 - i` of the row number `64 * w + k`. Bits past
 /// the last row are not masked.
@@ -185,27 +202,66 @@ impl TruthTable {
             .all(|(a, b)| b & !a == 0)
     }
 
+    /// The function with input `i` negated: its value on minterm `m` is
+    /// this one's on `m` with input `i`'s bit inverted.
+    ///
+    /// ```
+    /// use implica_logic::TruthTable;
+    /// // a & !b with b negated is a & b.
+    /// let (a, b) = (TruthTable::var(2, 0), TruthTable::var(2, 1));
+    /// assert_eq!(a.and_not(&b).flip(1), a.and(&b));
+    /// ```
+    pub fn flip(&self, i: usize) -> TruthTable {
+        assert!(i < self.vars, "variable {i} of {}", self.vars);
+        let shift = self.vars - 1 - i;
+        let words = if shift < 6 {
+            self.words.iter().map(|&w| swap_bits(w, shift)).collect()
+        } else {
+            // Rows differing in a bit from the seventh up lie in another word.
+            let apart = 1usize << (shift - 6);
+            (0..self.words.len())
+                .map(|w| self.words[w ^ apart])
+                .collect()
+        };
+        TruthTable {
+            vars: self.vars,
+            words,
+        }
+    }
+
     /// The cofactor with variable `i` fixed to `value`, still over `vars` inputs
     /// (it no longer depends on `i`).
     pub fn cofactor(&self, i: usize, value: bool) -> TruthTable {
-        let shift = self.vars - 1 - i;
-        let mut t = TruthTable::zero(self.vars);
-        for m in 0..(1usize << self.vars) {
-            let src = if value {
-                m | (1 << shift)
-            } else {
-                m & !(1 << shift)
-            };
-            if self.get(src) {
-                t.set(m, true);
-            }
-        }
-        t
+        let side = TruthTable::var(self.vars, i);
+        let half = if value {
+            self.and(&side)
+        } else {
+            self.and_not(&side)
+        };
+        half.or(&half.flip(i))
     }
 
     /// Whether the function's value depends on variable `i`.
     pub fn depends_on(&self, i: usize) -> bool {
-        self.cofactor(i, false) != self.cofactor(i, true)
+        *self != self.flip(i)
+    }
+
+    /// Whether every function that agrees with this one on `care` depends
+    /// on variable `i`: two rows of `care` that differ in input `i` alone
+    /// have different values. Every sum of products and every product of
+    /// sums of such a function then reads input `i`.
+    ///
+    /// ```
+    /// use implica_logic::TruthTable;
+    /// // a & b over (a, b), cared for only where a is 1, is b there.
+    /// let (a, b) = (TruthTable::var(2, 0), TruthTable::var(2, 1));
+    /// let f = a.and(&b);
+    /// assert!(f.depends_on_within(1, &a));
+    /// assert!(!f.depends_on_within(0, &a));
+    /// ```
+    pub fn depends_on_within(&self, i: usize, care: &TruthTable) -> bool {
+        let both = care.and(&care.flip(i));
+        !self.xor(&self.flip(i)).and(&both).is_zero()
     }
 
     /// The variables the function depends on.

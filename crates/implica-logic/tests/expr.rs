@@ -20,6 +20,37 @@ proptest! {
         }
     }
 
+    /// The table operations on one input, against their definitions row by
+    /// row (input `i` is bit `n - 1 - i` of the row number), over 1 to 9
+    /// inputs so that inputs inside a word and across words are both met.
+    #[test]
+    fn flips_cofactors_and_dependence_follow_their_definitions(
+        n in 1usize..=9,
+        bits in prop::collection::vec(any::<bool>(), 512),
+        care_bits in prop::collection::vec(any::<bool>(), 512),
+    ) {
+        let rows: Vec<usize> = (0..1usize << n).collect();
+        let t = TruthTable::from_minterms(n, &rows.iter().copied().filter(|&m| bits[m]).collect::<Vec<_>>());
+        let care = TruthTable::from_minterms(n, &rows.iter().copied().filter(|&m| care_bits[m]).collect::<Vec<_>>());
+        for i in 0..n {
+            let bit = 1usize << (n - 1 - i);
+            let flipped = t.flip(i);
+            let (low, high) = (t.cofactor(i, false), t.cofactor(i, true));
+            let mut differs = false;
+            let mut differs_within = false;
+            for &m in &rows {
+                prop_assert_eq!(flipped.get(m), t.get(m ^ bit));
+                prop_assert_eq!(low.get(m), t.get(m & !bit));
+                prop_assert_eq!(high.get(m), t.get(m | bit));
+                differs |= t.get(m) != t.get(m ^ bit);
+                differs_within |= care.get(m) && care.get(m ^ bit) && t.get(m) != t.get(m ^ bit);
+            }
+            prop_assert_eq!(flipped.count_ones(), t.count_ones());
+            prop_assert_eq!(t.depends_on(i), differs);
+            prop_assert_eq!(t.depends_on_within(i, &care), differs_within);
+        }
+    }
+
     #[test]
     fn minimized_forms_compute_the_same_function(e in expr(8)) {
         let f = e.truth_table(8);
