@@ -11,8 +11,8 @@
 
 use crate::functions::Functions;
 use implica_logic::{
-    BddRef, BoolExpr, Budget, Effort, Interrupted, Minimized, TruthTable, minimize_pos,
-    minimize_sop,
+    BddRef, BoolExpr, Budget, Effort, Interrupted, Minimized, TruthTable, minimize_pos_cancellable,
+    minimize_sop_cancellable,
 };
 use implica_syntax::ast::{BinOp, Expr, ExprKind, SmolStr};
 
@@ -404,14 +404,24 @@ pub(crate) fn operand_removal(ops: &[Expr], i: usize) -> implica_syntax::Span {
 
 /// The minimal sum of products and product of sums of the expression over
 /// its names, terms in reading order; `None` past the exact budget.
-pub(crate) fn minimal_forms(f: &ExprFunction, budget: &Budget) -> Option<(Minimized, Minimized)> {
+/// The minimal sum of products and product of sums of `f`, `None` when
+/// either is out of `budget`; `Err` when `cancel` stopped them.
+pub(crate) fn minimal_forms(
+    f: &ExprFunction,
+    budget: &Budget,
+    cancel: &dyn Fn() -> bool,
+) -> Result<Option<(Minimized, Minimized)>, Interrupted> {
     let dc = !&f.reachable;
     let on = f.table.and(&f.reachable);
-    let mut sop = minimize_sop(&on, &dc, budget).ok()?;
-    let mut pos = minimize_pos(&on, &dc, budget).ok()?;
+    let Ok(mut sop) = minimize_sop_cancellable(&on, &dc, budget, cancel)? else {
+        return Ok(None);
+    };
+    let Ok(mut pos) = minimize_pos_cancellable(&on, &dc, budget, cancel)? else {
+        return Ok(None);
+    };
     sop.cover.sort_for_reading();
     pos.cover.sort_for_reading();
-    Some((sop, pos))
+    Ok(Some((sop, pos)))
 }
 
 /// Whether `non-minimal` reports the expression: a two-level form has
@@ -423,7 +433,8 @@ pub(crate) fn non_minimal_applies(
     e: &Expr,
     f: &ExprFunction,
     budget: &Budget,
-) -> Option<(Minimized, Minimized)> {
+    cancel: &dyn Fn() -> bool,
+) -> Result<Option<(Minimized, Minimized)>, Interrupted> {
     let written = written_literals(e);
     // Every two-level form reads each input the function needs at least
     // once; when the expression reads no more, no form can have fewer
@@ -432,17 +443,19 @@ pub(crate) fn non_minimal_applies(
         .filter(|&i| f.table.depends_on_within(i, &f.reachable))
         .count();
     if needed >= written {
-        return None;
+        return Ok(None);
     }
-    let (sop, pos) = minimal_forms(f, budget)?;
+    let Some((sop, pos)) = minimal_forms(f, budget, cancel)? else {
+        return Ok(None);
+    };
     let best = sop.cover.literals().min(pos.cover.literals());
     if best >= written || best == 0 {
-        return None;
+        return Ok(None);
     }
     if let Some(t) = two_level(e, &f.names)
         && redundancy(&t, f).literals_left <= best
     {
-        return None;
+        return Ok(None);
     }
-    Some((sop, pos))
+    Ok(Some((sop, pos)))
 }

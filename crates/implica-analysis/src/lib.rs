@@ -171,6 +171,17 @@ fn run_rules(
     mut functions: functions::Functions,
     cancel: Option<&dyn Fn() -> bool>,
 ) -> Option<(Analysis, functions::Functions)> {
+    // Once any computation saw the caller cancel, the driver sees it too,
+    // whatever the callback says later: a computation stopped halfway gave
+    // nothing, so the analysis must not be returned as whole.
+    let seen = std::cell::Cell::new(false);
+    let sticky = || {
+        if !seen.get() && cancel.is_some_and(|c| c()) {
+            seen.set(true);
+        }
+        seen.get()
+    };
+    let cancel: Option<&dyn Fn() -> bool> = cancel.map(|_| &sticky as &dyn Fn() -> bool);
     let stop = || cancel.is_some_and(|c| c());
     let config = &*config.for_file(file);
     let mut diagnostics = syntax_only(errors).diagnostics;

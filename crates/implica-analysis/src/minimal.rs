@@ -6,7 +6,7 @@ use crate::functions::{Functions, Local, Unknown};
 use crate::model::SignalId;
 use implica_logic::{
     BoolExpr, Budget, Cover, Effort, Interrupted, Minimized, TruthTable, minimize_heuristic,
-    minimize_pos, minimize_sop,
+    minimize_pos_cancellable, minimize_sop_cancellable,
 };
 
 /// How a form was found.
@@ -118,10 +118,11 @@ fn form(
     if k <= budget.max_vars.min(implica_logic::MAX_VARS) {
         let on = f.bdd.to_truth_table(local.on, &local.inputs);
         let dc = f.bdd.to_truth_table(local.dc, &local.inputs);
+        let stop = || effort.cancelled();
         let found = if product_of_sums {
-            minimize_pos(&on, &dc, budget)
+            minimize_pos_cancellable(&on, &dc, budget, &stop)?
         } else {
-            minimize_sop(&on, &dc, budget)
+            minimize_sop_cancellable(&on, &dc, budget, &stop)?
         };
         if let Ok(m) = found {
             return Ok(check_exact(m, &on, &dc, product_of_sums));

@@ -76,6 +76,22 @@ impl<K: Hash + Eq, V: Clone> Memo<K, V> {
         }
     }
 
+    /// [`Memo::get_or`] for a computation that can be stopped: when
+    /// `compute` gives `None` nothing is kept, and `None` comes back.
+    pub(crate) fn try_get_or(&mut self, key: K, compute: impl FnOnce() -> Option<V>) -> Option<V> {
+        let epoch = self.epoch;
+        match self.map.entry(key) {
+            std::collections::hash_map::Entry::Occupied(mut o) => {
+                o.get_mut().1 = epoch;
+                Some(o.get().0.clone())
+            }
+            std::collections::hash_map::Entry::Vacant(v) => {
+                let value = compute()?;
+                Some(v.insert((value, epoch)).0.clone())
+            }
+        }
+    }
+
     /// Starts a new analysis: what the last one did not use goes.
     fn age(&mut self) {
         let keep = self.epoch;

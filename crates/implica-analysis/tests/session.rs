@@ -292,3 +292,66 @@ fn a_session_can_move_to_another_thread() {
     .unwrap();
     assert_eq!(moved.0, 1);
 }
+
+/// One expression over 13 inputs whose minimal forms take most of the
+/// analysis: the cancellation check is polled inside the minimization (not
+/// only between definitions), so an editor's cancellation stops it there,
+/// and whatever the point, the analysis gives nothing or the whole answer,
+/// and the session stays sound.
+#[test]
+fn a_cancellation_inside_a_long_minimization_leaves_the_session_sound() {
+    let mut rng = Rng(0x2F1E_8C44_90A7_3B65);
+    let inputs: Vec<String> = (0..13).map(|i| format!("s{i}")).collect();
+    let terms: Vec<String> = (0..70)
+        .map(|_| {
+            let mut picked: Vec<usize> = Vec::new();
+            while picked.len() < 6 {
+                let v = rng.below(13) as usize;
+                if !picked.contains(&v) {
+                    picked.push(v);
+                }
+            }
+            picked
+                .iter()
+                .map(|&v| {
+                    let neg = if rng.below(2) == 0 { "!" } else { "" };
+                    format!("{neg}{}", inputs[v])
+                })
+                .collect::<Vec<_>>()
+                .join(" & ")
+        })
+        .collect();
+    let src = format!(
+        "input {}\noutput y\ny = {}\n",
+        inputs.join(", "),
+        terms.join("\n  | ")
+    );
+    let config = Config::default();
+    let fresh = analyze_with(&src, &config);
+    let polls = std::cell::Cell::new(0usize);
+    let count = || {
+        polls.set(polls.get() + 1);
+        false
+    };
+    let counted = Session::new()
+        .analyze_cancellable(&src, &config, Some(&count))
+        .unwrap();
+    same(&counted, &fresh, &src, 0);
+    let total = polls.get();
+    assert!(total >= 100, "{total} polls");
+    let mut stopped = 0;
+    for k in (0..total + 2).step_by(total / 16) {
+        let mut session = Session::new();
+        let polls = std::cell::Cell::new(0usize);
+        let stop = || {
+            polls.set(polls.get() + 1);
+            polls.get() > k
+        };
+        match session.analyze_cancellable(&src, &config, Some(&stop)) {
+            None => stopped += 1,
+            Some(a) => same(&a, &fresh, &src, k),
+        }
+        same(&session.analyze(&src, &config), &fresh, &src, k);
+    }
+    assert!(stopped >= 12, "only {stopped} analyses were stopped");
+}

@@ -70,6 +70,12 @@ impl<'a> Effort<'a> {
         self
     }
 
+    /// Whether the caller's cancellation check says stop (polled now),
+    /// for work that is bounded otherwise but should still stop early.
+    pub fn cancelled(&self) -> bool {
+        self.cancel.is_some_and(|c| c())
+    }
+
     /// Units spent so far.
     pub fn used(&self) -> u64 {
         self.used

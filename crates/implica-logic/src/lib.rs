@@ -40,8 +40,11 @@ pub use expr::BoolExpr;
 pub use gates::{Cost, Gate, GateError, GateKind, GateNetwork, NetworkCost, Signal};
 pub use hash::{FastHasher, FastMap, FastSet};
 pub use heuristic::{Heuristic, minimize_heuristic};
-pub use minimize::{Budget, Minimized, TooLarge, minimize_pos, minimize_sop, prime_implicants};
-pub use multi::{MAX_OUTPUTS, MultiMinimized, minimize_multi};
+pub use minimize::{
+    Budget, Minimized, TooLarge, minimize_pos, minimize_pos_cancellable, minimize_sop,
+    minimize_sop_cancellable, prime_implicants,
+};
+pub use multi::{MAX_OUTPUTS, MultiMinimized, minimize_multi, minimize_multi_cancellable};
 pub use render::{
     DONT_CARE, Format, Function, RenderError, render_karnaugh_map, render_truth_table,
 };

@@ -13,7 +13,7 @@
 //! Cost: fewest product terms, then fewest literals.
 
 use crate::truth_table::{LOW_HALF, swap_bits};
-use crate::{Cover, Cube, TruthTable};
+use crate::{Cover, Cube, Interrupted, TruthTable};
 
 /// Limits of one minimization. Past them the result is not proven minimal
 /// (or, for the inputs and primes, not attempted); nothing runs unbounded.
@@ -166,7 +166,12 @@ struct PrimeSearch<'a> {
     low: usize,
     budget: &'a Budget,
     primes: Vec<Implicant>,
+    /// Set when the search must end: too many primes, or the caller
+    /// stopped it (`cancelled`).
     too_many: bool,
+    stop: Stop<'a>,
+    visits: u32,
+    cancelled: bool,
     /// The child tables of each depth.
     scratch: Vec<Scratch>,
 }
@@ -187,6 +192,12 @@ impl PrimeSearch<'_> {
     /// when a depth is first reached.
     fn visit(&mut self, free: u32, tables: (&[u64], &[u64], &[u32]), next: usize, depth: usize) {
         let (care, need, bound_high) = tables;
+        self.visits = self.visits.wrapping_add(1);
+        if self.visits.is_multiple_of(PRIME_POLL) && (self.stop)() {
+            self.cancelled = true;
+            self.too_many = true;
+            return;
+        }
         self.collect(free, care, need, bound_high);
         if self.too_many {
             return;
@@ -289,11 +300,59 @@ impl PrimeSearch<'_> {
     }
 }
 
+/// Implicant tables visited between two polls of the caller's stop check.
+const PRIME_POLL: u32 = 1024;
+
+/// The caller's check for stopping a minimization early: polled between
+/// the steps of the prime generation and of the cover search.
+pub(crate) type Stop<'a> = &'a dyn Fn() -> bool;
+
+/// Why a minimization gave no result.
+pub(crate) enum Stopped {
+    TooLarge(TooLarge),
+    Cancelled,
+}
+
+impl From<TooLarge> for Stopped {
+    fn from(t: TooLarge) -> Stopped {
+        Stopped::TooLarge(t)
+    }
+}
+
+impl Stopped {
+    /// For the callers that cannot stop: their check never says so.
+    pub(crate) fn too_large(self) -> TooLarge {
+        match self {
+            Stopped::TooLarge(t) => t,
+            Stopped::Cancelled => TooLarge {
+                reason: "cancelled".to_string(),
+                vars: 0,
+                on_set: 0,
+            },
+        }
+    }
+
+    /// For the cancellable callers.
+    pub(crate) fn split<T>(r: Result<T, Stopped>) -> Result<Result<T, TooLarge>, Interrupted> {
+        match r {
+            Ok(v) => Ok(Ok(v)),
+            Err(Stopped::TooLarge(t)) => Ok(Err(t)),
+            Err(Stopped::Cancelled) => Err(Interrupted::Cancelled),
+        }
+    }
+}
+
+/// A check that never stops.
+pub(crate) fn never() -> bool {
+    false
+}
+
 pub(crate) fn primes_of(
     on: &TruthTable,
     dc: &TruthTable,
     budget: &Budget,
-) -> Result<Vec<Implicant>, TooLarge> {
+    stop: Stop,
+) -> Result<Vec<Implicant>, Stopped> {
     check_size(on, dc, budget)?;
     let vars = on.vars();
     let low = vars.min(6);
@@ -303,6 +362,9 @@ pub(crate) fn primes_of(
         budget,
         primes: Vec::new(),
         too_many: false,
+        stop,
+        visits: 0,
+        cancelled: false,
         scratch: Vec::new(),
     };
     let care = table_words(&on.or(dc));
@@ -311,12 +373,15 @@ pub(crate) fn primes_of(
     if care.iter().any(|&w| w != 0) {
         search.visit(0, (&care, &need, &bound_high), 0, 0);
     }
+    if search.cancelled {
+        return Err(Stopped::Cancelled);
+    }
     if search.too_many {
-        return Err(TooLarge {
+        return Err(Stopped::TooLarge(TooLarge {
             reason: format!("more than {} prime implicants", budget.max_primes),
             vars,
             on_set: on.and_not(dc).count_ones(),
-        });
+        }));
     }
     let mut primes = search.primes;
     primes.sort();
@@ -364,7 +429,7 @@ pub fn prime_implicants(
     budget: &Budget,
 ) -> Result<Cover, TooLarge> {
     let vars = on.vars();
-    let primes = primes_of(on, dc, budget)?;
+    let primes = primes_of(on, dc, budget, &never).map_err(Stopped::too_large)?;
     Ok(Cover {
         vars,
         cubes: primes.into_iter().map(|p| p.to_cube(vars)).collect(),
@@ -378,8 +443,60 @@ pub fn minimize_sop(
     dc: &TruthTable,
     budget: &Budget,
 ) -> Result<Minimized, TooLarge> {
+    sop(on, dc, budget, &never).map_err(Stopped::too_large)
+}
+
+/// [`minimize_sop`], stopped early when `cancel` returns true: it is
+/// polled every few hundred microseconds of work (between implicant tables
+/// of the prime generation, subgradient steps and nodes of the cover
+/// search), so that an editor can drop a minimization of a document that
+/// has changed. A cancelled minimization gives
+/// `Err(Interrupted::Cancelled)`; otherwise the result is exactly
+/// [`minimize_sop`]'s.
+///
+/// ```
+/// use implica_logic::{Budget, Interrupted, TruthTable, minimize_sop_cancellable};
+/// let parity = TruthTable::var(3, 0).xor(&TruthTable::var(3, 1)).xor(&TruthTable::var(3, 2));
+/// let none = TruthTable::zero(3);
+/// let go = || false;
+/// let m = minimize_sop_cancellable(&parity, &none, &Budget::default(), &go).unwrap().unwrap();
+/// assert_eq!(m.cover.len(), 4);
+/// let stop = || true;
+/// let r = minimize_sop_cancellable(&parity, &none, &Budget::default(), &stop);
+/// assert_eq!(r.err(), Some(Interrupted::Cancelled));
+/// ```
+pub fn minimize_sop_cancellable(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+    cancel: &dyn Fn() -> bool,
+) -> Result<Result<Minimized, TooLarge>, Interrupted> {
+    Stopped::split(sop(on, dc, budget, cancel))
+}
+
+/// [`minimize_pos`], stopped early when `cancel` returns true, as
+/// [`minimize_sop_cancellable`] is.
+pub fn minimize_pos_cancellable(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+    cancel: &dyn Fn() -> bool,
+) -> Result<Result<Minimized, TooLarge>, Interrupted> {
+    Stopped::split(pos(on, dc, budget, cancel))
+}
+
+pub(crate) fn sop(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+    stop: Stop,
+) -> Result<Minimized, Stopped> {
+    // A stop that holds from the start stops here, whatever the size.
+    if stop() {
+        return Err(Stopped::Cancelled);
+    }
     let vars = on.vars();
-    let primes = primes_of(on, dc, budget)?;
+    let primes = primes_of(on, dc, budget, stop)?;
     let required = on.and_not(dc).minterms();
     check_matrix(&primes, vars, required.len())?;
     let mut row_of = vec![u32::MAX; 1usize << vars];
@@ -398,7 +515,7 @@ pub fn minimize_sop(
         .iter()
         .map(|p| (vars - p.free.count_ones() as usize) as u64)
         .collect();
-    let solution = solve_cover(rows, &literals, vars, budget);
+    let solution = solve_cover(rows, &literals, vars, budget, stop)?;
     let mut cubes: Vec<Cube> = solution
         .columns
         .iter()
@@ -436,9 +553,18 @@ pub fn minimize_pos(
     dc: &TruthTable,
     budget: &Budget,
 ) -> Result<Minimized, TooLarge> {
+    pos(on, dc, budget, &never).map_err(Stopped::too_large)
+}
+
+fn pos(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+    stop: Stop,
+) -> Result<Minimized, Stopped> {
     check_size(on, dc, budget)?;
     let off = !&on.or(dc);
-    minimize_sop(&off, dc, budget)
+    sop(&off, dc, budget, stop)
 }
 
 /// The columns of the cover found, whether it is proven of least cost, and
@@ -458,7 +584,8 @@ pub(crate) fn solve_cover(
     literals: &[u64],
     vars: usize,
     budget: &Budget,
-) -> Solution {
+    stop: Stop,
+) -> Result<Solution, Stopped> {
     // A search never picks more columns than there are rows.
     let term = (rows.len() as u64) * (vars as u64) + 1;
     let mut packed = Rows::default();
@@ -480,15 +607,20 @@ pub(crate) fn solve_cover(
         work: 0,
         max_work: budget.max_work,
         exhausted: false,
+        stop,
+        cancelled: false,
     };
     let part = solver.solve(matrix, ROOT);
+    if solver.cancelled {
+        return Err(Stopped::Cancelled);
+    }
     let mut columns: Vec<usize> = part.columns.iter().map(|&c| c as usize).collect();
     columns.sort_unstable();
-    Solution {
+    Ok(Solution {
         proven: part.proven,
         lower_bound_terms: ((part.lower_bound / term) as usize).min(columns.len()),
         columns,
-    }
+    })
 }
 
 /// Lagrange multipliers are fixed point, in units of 1/`SCALE` of a cost,
@@ -685,7 +817,10 @@ fn subset_live(a: &[u32], b: &[u32], live: impl Fn(u32) -> bool) -> bool {
 /// Essential columns, row dominance and column dominance until nothing
 /// changes; chosen columns are added to `chosen` and `cost`. `None` when a
 /// row can no longer be covered.
-fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix> {
+///
+/// When `stop` says so, the reductions made so far come back (each of them
+/// sound on its own), so that a cancelled search ends soon.
+fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> Option<Matrix> {
     loop {
         let (rows, cols) = (m.rows.len(), m.cost.len());
         let mut row_live = vec![true; rows];
@@ -712,11 +847,18 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
             m = m.restrict(&row_live, &col_live);
             continue;
         }
+        // No row is empty here, so the matrix may be handed back.
+        if stop() {
+            return Some(m);
+        }
         let col_rows = m.col_rows();
         // Row dominance: a row whose columns include all of another row's is
         // covered whenever that row is. Such a row holds the other row's
         // first column, so only that column's rows are candidates.
         for q in 0..rows {
+            if q % REDUCE_POLL == REDUCE_POLL - 1 && stop() {
+                return Some(m.restrict(&row_live, &col_live));
+            }
             if !row_live[q] {
                 continue;
             }
@@ -744,6 +886,9 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
             .map(|rs| rs.iter().filter(|&&r| row_live[r as usize]).count())
             .collect();
         for a in 0..cols {
+            if a % REDUCE_POLL == REDUCE_POLL - 1 && stop() {
+                return Some(m.restrict(&row_live, &col_live));
+            }
             let Some(&first) = col_rows[a].iter().find(|&&r| row_live[r as usize]) else {
                 col_live[a] = false;
                 changed = true;
@@ -773,6 +918,10 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64) -> Option<Matrix
     }
 }
 
+/// Rows or columns between two polls of the stop check in [`reduce`] and
+/// [`swap_down`].
+const REDUCE_POLL: usize = 1024;
+
 /// A cover of part of the problem: its columns, cost, a lower bound on the
 /// cost of any cover, and whether the cover is proven of least cost.
 struct Part {
@@ -782,7 +931,7 @@ struct Part {
     proven: bool,
 }
 
-struct Solver {
+struct Solver<'a> {
     /// The cost of a term, beside its literals.
     term: u64,
     /// Columns chosen by branching on the way to the current node.
@@ -794,6 +943,10 @@ struct Solver {
     work: u64,
     max_work: u64,
     exhausted: bool,
+    stop: Stop<'a>,
+    /// Whether `stop` said so: everything left is skipped, and the result
+    /// thrown away.
+    cancelled: bool,
 }
 
 /// How long the subgradient search runs: at most `steps` steps, the step
@@ -847,13 +1000,23 @@ const PRIMAL_PASSES: u64 = 3;
 /// refinement, whatever the work left.
 const MIN_STEPS: usize = 50;
 
-impl Solver {
+impl Solver<'_> {
+    /// Polls the caller's stop check; once it says stop, the search is
+    /// over (as when out of budget) and the result will be dropped.
+    fn stopped(&mut self) -> bool {
+        if !self.cancelled && (self.stop)() {
+            self.cancelled = true;
+            self.exhausted = true;
+        }
+        self.cancelled
+    }
+
     /// The least-cost cover of `m` (a feasible matrix), each connected
     /// component searched on its own.
     fn solve(&mut self, m: Matrix, effort: Effort) -> Part {
         let mut chosen = Vec::new();
         let mut cost = 0;
-        let Some(m) = reduce(m, &mut chosen, &mut cost) else {
+        let Some(m) = reduce(m, &mut chosen, &mut cost, self.stop) else {
             // Unreachable for feasible matrices; claim nothing.
             return Part {
                 columns: chosen,
@@ -876,6 +1039,11 @@ impl Solver {
             components.push(m);
         }
         for mut component in components {
+            if self.stopped() {
+                // The result is dropped; claim nothing.
+                part.proven = false;
+                break;
+            }
             let col_rows = component.col_rows();
             // The root's bound takes at most half the work left, so that the
             // refinement and the search get the other half.
@@ -896,6 +1064,7 @@ impl Solver {
                     self.term,
                     best.0,
                     effort,
+                    self.stop,
                     &mut |_, _| best.0,
                 );
                 self.work +=
@@ -932,6 +1101,7 @@ impl Solver {
             self.term,
             best.0,
             effort,
+            self.stop,
             &mut |m: &Matrix, reduced: &[i64]| {
                 let cover = greedy(m, col_rows, Some(reduced));
                 if cover.0 < best.0 {
@@ -942,7 +1112,7 @@ impl Solver {
         );
         self.work += m.rows.entries.len() as u64 * (PRIMAL_PASSES * bound.steps as u64 + 8);
         if bound.cost < best.0 {
-            let better = swap_down(m, col_rows, &best.1);
+            let better = swap_down(m, col_rows, &best.1, self.stop);
             if better.0 < best.0 {
                 best = better;
             }
@@ -971,7 +1141,7 @@ impl Solver {
     fn refine(&mut self, m: &Matrix, col_rows: &Rows, reduced: &[i64], best: &mut (u64, Vec<u32>)) {
         let rows = m.rows.len();
         for share in REFINE_SHARES {
-            if self.work > self.max_work {
+            if self.work > self.max_work || self.stopped() {
                 break;
             }
             let mut columns: Vec<usize> = best
@@ -1000,8 +1170,12 @@ impl Solver {
                 }
             }
             let row_live: Vec<bool> = covered.iter().map(|&c| !c).collect();
-            let Some(mut rest) = reduce(m.restrict(&row_live, &col_live), &mut chosen, &mut cost)
-            else {
+            let Some(mut rest) = reduce(
+                m.restrict(&row_live, &col_live),
+                &mut chosen,
+                &mut cost,
+                self.stop,
+            ) else {
                 continue;
             };
             if !rest.rows.is_empty() {
@@ -1014,7 +1188,7 @@ impl Solver {
             if cost < best.0 {
                 chosen.sort_unstable();
                 let cover = without_redundant(m, col_rows, &chosen);
-                let better = swap_down(m, col_rows, &cover.1);
+                let better = swap_down(m, col_rows, &cover.1, self.stop);
                 *best = if better.0 < cover.0 { better } else { cover };
             }
         }
@@ -1038,11 +1212,11 @@ impl Solver {
             // Reduction visits the matrix about this often (the bound's
             // steps are counted as they are taken).
             self.work += m.rows.entries.len() as u64 * 8;
-            if self.nodes > self.max_nodes || self.work > self.max_work {
+            if self.nodes > self.max_nodes || self.work > self.max_work || self.stopped() {
                 self.exhausted = true;
                 break;
             }
-            let Some(reduced) = reduce(m, path, &mut cost) else {
+            let Some(reduced) = reduce(m, path, &mut cost, self.stop) else {
                 break;
             };
             match self.branch_reduced(reduced, cost, path, best) {
@@ -1076,9 +1250,15 @@ impl Solver {
             let mut parts = Vec::with_capacity(components.len());
             for mut c in components {
                 let col_rows = c.col_rows();
-                let b = lagrange(&mut c, &col_rows, self.term, u64::MAX, NODE, &mut |_, _| {
-                    u64::MAX
-                });
+                let b = lagrange(
+                    &mut c,
+                    &col_rows,
+                    self.term,
+                    u64::MAX,
+                    NODE,
+                    self.stop,
+                    &mut |_, _| u64::MAX,
+                );
                 self.work += c.rows.entries.len() as u64 * 2 * b.steps as u64;
                 bound = bound.saturating_add(b.cost);
                 parts.push(c);
@@ -1100,7 +1280,15 @@ impl Solver {
         }
         let col_rows = m.col_rows();
         let room = best.0 - cost;
-        let bound = lagrange(&mut m, &col_rows, self.term, room, NODE, &mut |_, _| room);
+        let bound = lagrange(
+            &mut m,
+            &col_rows,
+            self.term,
+            room,
+            NODE,
+            self.stop,
+            &mut |_, _| room,
+        );
         self.work += m.rows.entries.len() as u64 * 2 * bound.steps as u64;
         if bound.cost >= room {
             return None;
@@ -1246,7 +1434,7 @@ fn without_redundant(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u3
 /// columns `S` cover alone replaces them all when that saves a term (two or
 /// more) or a literal (one, dearer), provided the other rows of `S` stay
 /// covered.
-fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
+fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32], stop: Stop) -> (u64, Vec<u32>) {
     let cols = m.cost.len();
     let mut chosen = vec![false; cols];
     let mut times = vec![0u32; m.rows.len()];
@@ -1260,9 +1448,13 @@ fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u32>) {
     let mut stamp = vec![usize::MAX; cols];
     let mut hits = vec![0u32; cols];
     let mut in_d = vec![usize::MAX; m.rows.len()];
-    for _ in 0..4 {
+    'passes: for _ in 0..4 {
         let mut changed = false;
         for d in 0..cols {
+            // Stopped: the cover so far is a cover.
+            if d % REDUCE_POLL == REDUCE_POLL - 1 && stop() {
+                break 'passes;
+            }
             if chosen[d] {
                 continue;
             }
@@ -1558,6 +1750,7 @@ fn lagrange(
     term: u64,
     limit: u64,
     effort: Effort,
+    stop: Stop,
     primal: &mut dyn FnMut(&Matrix, &[i64]) -> u64,
 ) -> Bound {
     let (rows, cols) = (m.rows.len(), m.cost.len());
@@ -1613,6 +1806,7 @@ fn lagrange(
         limit,
         fewest: 0,
         steps: 0,
+        stop,
     };
     let plain = climb.run(
         &*m,
@@ -1688,6 +1882,9 @@ struct Climb<'a, 'b> {
     limit: u64,
     fewest: u64,
     steps: usize,
+    /// Polled every few steps; stopping early leaves a weaker bound, still
+    /// a bound.
+    stop: Stop<'a>,
 }
 
 impl Climb<'_, '_> {
@@ -1739,6 +1936,10 @@ impl Climb<'_, '_> {
         let mut shifted = Vec::new();
         for step_index in 0..effort.steps {
             if (!counted && now.exact) || best.0 >= self.limit {
+                break;
+            }
+            // Each step is a pass over the matrix: polling is cheap beside it.
+            if (self.stop)() {
                 break;
             }
             if step_index % PRIMAL_EVERY == PRIMAL_EVERY - 1 {

@@ -24,8 +24,8 @@
 //! assert_eq!(m.shared().len(), 1);
 //! ```
 
-use crate::minimize::{Implicant, MAX_MATRIX, primes_of, solve_cover};
-use crate::{Budget, Cover, Cube, TooLarge, TruthTable, minimize_sop};
+use crate::minimize::{Implicant, MAX_MATRIX, Stop, Stopped, never, primes_of, solve_cover, sop};
+use crate::{Budget, Cover, Cube, Interrupted, TooLarge, TruthTable};
 use std::collections::HashSet;
 
 /// Most outputs minimized together (the prime generation visits sets of
@@ -102,6 +102,24 @@ pub fn minimize_multi(
     outputs: &[(TruthTable, TruthTable)],
     budget: &Budget,
 ) -> Result<MultiMinimized, TooLarge> {
+    multi(outputs, budget, &never).map_err(Stopped::too_large)
+}
+
+/// [`minimize_multi`], stopped early when `cancel` returns true, as
+/// [`crate::minimize_sop_cancellable`] is.
+pub fn minimize_multi_cancellable(
+    outputs: &[(TruthTable, TruthTable)],
+    budget: &Budget,
+    cancel: &dyn Fn() -> bool,
+) -> Result<Result<MultiMinimized, TooLarge>, Interrupted> {
+    Stopped::split(multi(outputs, budget, cancel))
+}
+
+fn multi(
+    outputs: &[(TruthTable, TruthTable)],
+    budget: &Budget,
+    stop: Stop,
+) -> Result<MultiMinimized, Stopped> {
     let vars = outputs.first().map_or(0, |o| o.0.vars());
     if outputs.len() > MAX_OUTPUTS {
         return Err(refuse(
@@ -110,19 +128,20 @@ pub fn minimize_multi(
                 outputs.len()
             ),
             outputs,
-        ));
+        )
+        .into());
     }
     if outputs
         .iter()
         .any(|(on, dc)| on.vars() != vars || dc.vars() != vars)
     {
-        return Err(refuse("outputs over different inputs".to_string(), outputs));
+        return Err(refuse("outputs over different inputs".to_string(), outputs).into());
     }
     // Each output alone: the comparison, and a bound (every output needs
     // its own minimum of distinct terms).
     let mut separate = Vec::with_capacity(outputs.len());
     for (on, dc) in outputs {
-        separate.push(minimize_sop(on, dc, budget)?);
+        separate.push(sop(on, dc, budget, stop)?);
     }
     let care: Vec<TruthTable> = outputs.iter().map(|(on, dc)| on.or(dc)).collect();
     let need: Vec<TruthTable> = outputs.iter().map(|(on, dc)| on.and_not(dc)).collect();
@@ -143,15 +162,19 @@ pub fn minimize_multi(
                 max_primes: budget.max_primes.saturating_sub(generated),
                 ..budget.clone()
             };
-            let primes = primes_of(&wanted, &product.and_not(&wanted), &left).map_err(|_| {
-                refuse(
-                    format!(
-                        "more than {} prime implicants over the sets of outputs",
-                        budget.max_primes
-                    ),
-                    outputs,
-                )
-            })?;
+            let primes = primes_of(&wanted, &product.and_not(&wanted), &left, stop).map_err(
+                |e| match e {
+                    Stopped::Cancelled => Stopped::Cancelled,
+                    Stopped::TooLarge(_) => refuse(
+                        format!(
+                            "more than {} prime implicants over the sets of outputs",
+                            budget.max_primes
+                        ),
+                        outputs,
+                    )
+                    .into(),
+                },
+            )?;
             generated += primes.len();
             for p in primes {
                 if found.insert(p) {
@@ -190,7 +213,8 @@ pub fn minimize_multi(
         return Err(refuse(
             format!("a covering matrix of more than {MAX_MATRIX} entries"),
             outputs,
-        ));
+        )
+        .into());
     }
     let serves: Vec<Vec<usize>> = columns
         .iter()
@@ -215,7 +239,7 @@ pub fn minimize_multi(
         .iter()
         .map(|p| (vars - p.free.count_ones() as usize) as u64)
         .collect();
-    let solution = solve_cover(rows, &literals, vars, budget);
+    let solution = solve_cover(rows, &literals, vars, budget, stop)?;
 
     let chosen: Vec<Cube> = solution
         .columns

@@ -2,8 +2,11 @@
 //! independent brute force. Sources are named beside each check.
 
 use implica_logic::{
-    Budget, Cover, Cube, TruthTable, minimize_pos, minimize_sop, prime_implicants,
+    Budget, Cover, Cube, Interrupted, TruthTable, minimize_multi, minimize_multi_cancellable,
+    minimize_pos, minimize_pos_cancellable, minimize_sop, minimize_sop_cancellable,
+    prime_implicants,
 };
+use std::cell::Cell;
 
 fn table(vars: usize, bits: u64) -> TruthTable {
     let mut t = TruthTable::zero(vars);
@@ -588,4 +591,88 @@ fn a_budget_cut_short_anywhere_keeps_the_certificate_true() {
     // Most functions were checked, and some budgets stopped the search
     // before its proof.
     assert!(checked >= 4 && cut_short > 0);
+}
+
+/// A check that counts its polls and says stop from poll `after` on.
+fn stop_after(after: usize, polls: &Cell<usize>) -> impl Fn() -> bool + '_ {
+    move || {
+        polls.set(polls.get() + 1);
+        polls.get() > after
+    }
+}
+
+#[test]
+fn a_minimization_cancelled_anywhere_gives_nothing_or_the_whole_answer() {
+    // Random 10- to 12-input functions (as in docs/benchmarks.md), sum and
+    // product: stopped after the k-th poll of the cancellation check, for
+    // k spread over the whole run, a minimization either reports the
+    // cancellation or gives exactly what it gives when nothing stops it;
+    // and it polls often enough that an editor's cancellation is seen
+    // within a small part of the run (at least 50 polls per run).
+    let mut x = 0x51C3_7E09_A2D4_6B18u64;
+    let mut stopped = 0;
+    for vars in [10usize, 11, 12] {
+        let (on, dc) = random_function(vars, &mut x);
+        let budget = Budget::default();
+        for pos in [false, true] {
+            let run = |cancel: &dyn Fn() -> bool| {
+                if pos {
+                    minimize_pos_cancellable(&on, &dc, &budget, cancel)
+                } else {
+                    minimize_sop_cancellable(&on, &dc, &budget, cancel)
+                }
+            };
+            let whole = if pos {
+                minimize_pos(&on, &dc, &budget)
+            } else {
+                minimize_sop(&on, &dc, &budget)
+            }
+            .unwrap();
+            let polls = Cell::new(0);
+            let counted = run(&stop_after(usize::MAX, &polls)).unwrap().unwrap();
+            assert_eq!(counted.cover, whole.cover);
+            let total = polls.get();
+            assert!(total >= 50, "{vars} inputs: {total} polls");
+            for k in (0..total + 2).step_by(total / 12) {
+                let polls = Cell::new(0);
+                match run(&stop_after(k, &polls)) {
+                    Err(Interrupted::Cancelled) => stopped += 1,
+                    Err(e) => panic!("{vars} inputs, k = {k}: {e:?}"),
+                    Ok(r) => {
+                        let r = r.unwrap();
+                        let what = format!("{vars} inputs, pos {pos}, stopped after poll {k}");
+                        assert_eq!(r.cover, whole.cover, "{what}");
+                        assert_eq!(r.proven_minimal, whole.proven_minimal, "{what}");
+                        assert_eq!(r.lower_bound, whole.lower_bound, "{what}");
+                    }
+                }
+            }
+        }
+    }
+    assert!(stopped >= 60, "only {stopped} runs were stopped");
+    // Several outputs together, the same way.
+    let outputs: Vec<(TruthTable, TruthTable)> =
+        (0..3).map(|_| random_function(9, &mut x)).collect();
+    let budget = Budget::default();
+    let whole = minimize_multi(&outputs, &budget).unwrap();
+    let polls = Cell::new(0);
+    minimize_multi_cancellable(&outputs, &budget, &stop_after(usize::MAX, &polls))
+        .unwrap()
+        .unwrap();
+    let total = polls.get();
+    let mut stopped = 0;
+    for k in (0..total + 2).step_by((total / 8).max(1)) {
+        let polls = Cell::new(0);
+        match minimize_multi_cancellable(&outputs, &budget, &stop_after(k, &polls)) {
+            Err(_) => stopped += 1,
+            Ok(r) => {
+                let r = r.unwrap();
+                assert_eq!((r.terms, r.uses), (whole.terms.clone(), whole.uses.clone()));
+            }
+        }
+    }
+    assert!(
+        stopped >= 4,
+        "only {stopped} of the multi-output runs were stopped"
+    );
 }

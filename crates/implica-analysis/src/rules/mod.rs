@@ -221,9 +221,14 @@ impl<'a> Ctx<'a, '_> {
         }
         let budget = &self.config.budget;
         let key = crate::session::ShapeKey::new(self.text_of(e), &f.reachable, budget);
-        let r = self.cache.non_minimal.get_or(key, || {
-            crate::forms::non_minimal_applies(e, f, budget).map(std::sync::Arc::new)
-        });
+        let cancel = self.cancel;
+        let stop = || cancel.is_some_and(|c| c());
+        // Cancelled: nothing is kept, and the driver drops the analysis.
+        let r = self.cache.non_minimal.try_get_or(key, || {
+            crate::forms::non_minimal_applies(e, f, budget, &stop)
+                .ok()
+                .map(|r| r.map(std::sync::Arc::new))
+        })?;
         self.non_minimal.insert(id, r.clone());
         r
     }

@@ -45,7 +45,8 @@ use super::{Ctx, Rule};
 use crate::model::{SignalId, SignalKind};
 use crate::{Diagnostic, Related, Severity};
 use implica_logic::{
-    BddRef, BoolExpr, Budget, Cover, Effort, MAX_OUTPUTS, TruthTable, minimize_multi, minimize_sop,
+    BddRef, BoolExpr, Budget, Cover, Effort, MAX_OUTPUTS, TruthTable, minimize_multi_cancellable,
+    minimize_sop_cancellable,
 };
 use std::collections::HashSet;
 
@@ -164,15 +165,21 @@ fn group_report(cx: &mut Ctx, members: &[SignalId], inputs: &[usize]) -> Option<
         tables.push((on, dc));
     }
     let budget = Budget::default();
+    let cancel = cx.cancel;
+    let stop = || cancel.is_some_and(|c| c());
     let mut separate = 0usize;
     for (on, dc) in &tables {
-        let alone = minimize_sop(on, dc, &budget).ok()?;
+        let alone = minimize_sop_cancellable(on, dc, &budget, &stop)
+            .ok()?
+            .ok()?;
         if !alone.proven_minimal {
             return None;
         }
         separate += alone.cover.len();
     }
-    let together = minimize_multi(&tables, &budget).ok()?;
+    let together = minimize_multi_cancellable(&tables, &budget, &stop)
+        .ok()?
+        .ok()?;
     if together.terms.len() >= separate {
         return None;
     }
