@@ -57,7 +57,7 @@ use crate::model::Model;
 use crate::{Applicability, Diagnostic, Edit, Fix, Severity};
 use implica_logic::{
     Bdd, BddRef, Budget, Cover, Cube, Effort, Interrupted, TruthTable, minimize_heuristic,
-    minimize_sop,
+    minimize_sop_cancellable,
 };
 use implica_syntax::Span;
 use implica_syntax::ast::{Item, ItemKind, RowKind, Table};
@@ -96,8 +96,11 @@ pub(crate) fn check(cx: &mut Ctx, out: &mut Vec<Diagnostic>) {
         let Some(ins) = header_values(cx.functions, m, &table.inputs) else {
             continue;
         };
-        let mut e = Effort::new(DEFAULT_WORK_PER_DEFINITION);
-        // Out of budget: say nothing rather than something unproven.
+        let cancel = cx.cancel;
+        let stop = || cancel.is_some_and(|c| c());
+        let mut e = Effort::new(DEFAULT_WORK_PER_DEFINITION).with_cancel(&stop);
+        // Out of budget: say nothing rather than something unproven (and
+        // when cancelled, the driver drops the whole analysis).
         let Ok(Some(missing)) = find(cx.functions, m, table, &ins, &mut e) else {
             continue;
         };
@@ -182,7 +185,7 @@ fn find(
         if on.is_zero() {
             return Ok(None);
         }
-        if let Some(mut cover) = merged(&on, &dc) {
+        if let Some(mut cover) = merged(&on, &dc, e)? {
             return Ok(Some(Missing {
                 patterns: patterns(&mut cover),
                 count: on.count_ones() as f64,
@@ -199,7 +202,7 @@ fn find(
             Ok(on) if on.is_zero() => return Ok(None),
             Ok(on) => {
                 let dc = all.and_not(&on);
-                if let Some(mut cover) = merged(&on, &dc) {
+                if let Some(mut cover) = merged(&on, &dc, e)? {
                     return Ok(Some(Missing {
                         patterns: patterns(&mut cover),
                         count: on.count_ones() as f64,
@@ -252,13 +255,19 @@ fn find(
 /// The fewest patterns that cover `on`, allowed to spill into `dc` (the
 /// combinations that cannot occur) only where that saves a pattern, so
 /// that a pattern is not widened for nothing.
-fn merged(on: &TruthTable, dc: &TruthTable) -> Option<Cover> {
+fn merged(on: &TruthTable, dc: &TruthTable, e: &Effort) -> Result<Option<Cover>, Interrupted> {
     let budget = Budget::default();
-    let with = minimize_sop(on, dc, &budget).ok()?.cover;
-    match minimize_sop(on, &TruthTable::zero(on.vars()), &budget) {
-        Ok(exact) if exact.cover.len() <= with.len() => Some(exact.cover),
-        _ => Some(with),
-    }
+    let stop = || e.cancelled();
+    let Ok(with) = minimize_sop_cancellable(on, dc, &budget, &stop)? else {
+        return Ok(None);
+    };
+    let with = with.cover;
+    Ok(Some(
+        match minimize_sop_cancellable(on, &TruthTable::zero(on.vars()), &budget, &stop)? {
+            Ok(exact) if exact.cover.len() <= with.len() => exact.cover,
+            _ => with,
+        },
+    ))
 }
 
 /// The combinations of `all` (over the table's inputs) that the input
