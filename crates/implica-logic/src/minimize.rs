@@ -142,15 +142,6 @@ fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), T
     Ok(())
 }
 
-/// The table's words: bit `m % 64` of word `m / 64` is minterm `m`.
-fn table_words(t: &TruthTable) -> Vec<u64> {
-    let mut words = vec![0u64; (1usize << t.vars()).div_ceil(64)];
-    for m in t.minterms() {
-        words[m / 64] |= 1 << (m % 64);
-    }
-    words
-}
-
 /// Prime generation over bit-parallel implicant tables, one per set of free
 /// minterm bits, visited depth first (each set from the set without its
 /// highest bit). The table of a set says, for each cube of that shape,
@@ -367,11 +358,11 @@ pub(crate) fn primes_of(
         cancelled: false,
         scratch: Vec::new(),
     };
-    let care = table_words(&on.or(dc));
-    let need = table_words(&on.and_not(dc));
+    let (care, need) = (on.or(dc), on.and_not(dc));
+    let (care, need) = (care.words(), need.words());
     let bound_high: Vec<u32> = (low as u32..vars as u32).collect();
     if care.iter().any(|&w| w != 0) {
-        search.visit(0, (&care, &need, &bound_high), 0, 0);
+        search.visit(0, (care, need, &bound_high), 0, 0);
     }
     if search.cancelled {
         return Err(Stopped::Cancelled);

@@ -126,6 +126,12 @@ impl TruthTable {
         t
     }
 
+    /// The table's words: bit `m % 64` of word `m / 64` is the value on
+    /// minterm `m`; bits past the last minterm are 0.
+    pub(crate) fn words(&self) -> &[u64] {
+        &self.words
+    }
+
     /// Number of inputs.
     pub fn vars(&self) -> usize {
         self.vars
