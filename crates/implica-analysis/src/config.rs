@@ -10,7 +10,7 @@
 //! [minimize]
 //! form      = "either"        # which minimal form `non-minimal` offers first: sop, pos or either
 //! max-inputs = 16             # most inputs minimized exactly
-//! max-work   = 20000000       # search budget of one exact minimization
+//! max-work   = 30000000       # search budget of one exact minimization
 //! ```
 //!
 //! Every key is optional. An unknown rule name, severity, key or value is

@@ -43,7 +43,7 @@ impl Default for Budget {
             max_vars: 16,
             max_primes: 200_000,
             max_nodes: 200_000,
-            max_work: 20_000_000,
+            max_work: 30_000_000,
         }
     }
 }
