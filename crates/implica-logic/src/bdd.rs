@@ -62,7 +62,9 @@ pub struct Bdd {
     max_nodes: usize,
 }
 
-/// Nodes a manager holds by default: about 50 MB with its tables.
+/// Nodes a manager holds by default: with its unique table and its
+/// operation cache (cleared at twice the nodes), about 270 MB when full
+/// (docs/benchmarks.md).
 pub const DEFAULT_MAX_NODES: usize = 1 << 21;
 
 impl Bdd {

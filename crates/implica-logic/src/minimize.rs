@@ -31,10 +31,17 @@ pub struct Budget {
     /// best cover, branch and bound), counted in covering-matrix entries
     /// visited (a measure of time that does not depend on the machine:
     /// about 10^7 entries take 0.03 to 0.05 s on the machine of
-    /// docs/benchmarks.md). Past this, as past `max_nodes`; the root of
-    /// each independent part of the matrix still gets a bound and a cover
-    /// (at least 50 subgradient steps).
+    /// docs/benchmarks.md). Past this, as past `max_nodes`: the
+    /// reductions, exchanges and branching stop, and each independent part
+    /// of the matrix still gets a cover and a bound, on up to twice this
+    /// work.
     pub max_work: u64,
+    /// Most entries of the covering matrix (the required minterms each
+    /// prime holds, summed over the primes). The cover search holds about
+    /// three copies of the matrix at 4 bytes an entry, so this bounds its
+    /// memory (the default, 2^23, to about 100 MB and well under a second
+    /// of work); a larger matrix is refused as too large.
+    pub max_entries: u64,
 }
 
 impl Default for Budget {
@@ -43,7 +50,8 @@ impl Default for Budget {
             max_vars: 16,
             max_primes: 200_000,
             max_nodes: 200_000,
-            max_work: 30_000_000,
+            max_work: 34_000_000,
+            max_entries: 1 << 23,
         }
     }
 }
@@ -379,28 +387,61 @@ pub(crate) fn primes_of(
     Ok(primes)
 }
 
-/// Most entries of a covering matrix, bounded by the minterms of its
-/// columns (a gibibyte of row lists).
-pub(crate) const MAX_MATRIX: u64 = 1 << 28;
-
-/// Refuses a covering matrix whose columns hold more than [`MAX_MATRIX`] minterms.
-pub(crate) fn check_matrix(
+/// Refuses a covering matrix of more than [`Budget::max_entries`] entries,
+/// counted before it is built from the required minterms of its columns,
+/// and primes whose minterms, don't-cares included, are too many to visit
+/// (four times as many), since building the matrix visits them all.
+fn check_matrix(
     primes: &[Implicant],
-    vars: usize,
-    on_set: usize,
+    required: &TruthTable,
+    budget: &Budget,
 ) -> Result<(), TooLarge> {
-    let entries: u64 = primes.iter().map(|p| 1u64 << p.free.count_ones()).sum();
-    if entries > MAX_MATRIX {
+    let visits: u64 = primes.iter().map(|p| 1u64 << p.free.count_ones()).sum();
+    if visits > budget.max_entries.saturating_mul(4) {
         return Err(TooLarge {
             reason: format!(
-                "a covering matrix of more than {MAX_MATRIX} entries ({} prime implicants)",
-                primes.len()
+                "{} prime implicants holding more than {} minterms in all",
+                primes.len(),
+                budget.max_entries.saturating_mul(4)
             ),
-            vars,
-            on_set,
+            vars: required.vars(),
+            on_set: required.count_ones(),
         });
     }
+    let mut entries = 0u64;
+    for p in primes {
+        entries += p.minterms().filter(|&m| required.get(m)).count() as u64;
+        if entries > budget.max_entries {
+            return Err(TooLarge {
+                reason: format!(
+                    "a covering matrix of more than {} entries ({} prime implicants)",
+                    budget.max_entries,
+                    primes.len()
+                ),
+                vars: required.vars(),
+                on_set: required.count_ones(),
+            });
+        }
+    }
     Ok(())
+}
+
+/// A covering matrix's rows from its entries, which `each` hands to its
+/// argument as (row, column) in ascending column order; it is called twice,
+/// to count and to fill, so that no list per row is held.
+pub(crate) fn pack_rows(rows: usize, each: impl Fn(&mut dyn FnMut(u32, u32))) -> Rows {
+    let mut start = vec![0u32; rows + 1];
+    each(&mut |r, _| start[r as usize + 1] += 1);
+    for r in 0..rows {
+        start[r + 1] += start[r];
+    }
+    let mut fill = start.clone();
+    let mut entries = vec![0u32; start[rows] as usize];
+    each(&mut |r, c| {
+        entries[fill[r as usize] as usize] = c;
+        fill[r as usize] += 1;
+    });
+    Rows { start, entries }
 }
 
 /// All prime implicants of the function that is 1 on `on`, free on `dc`,
@@ -490,20 +531,22 @@ pub(crate) fn sop(
     }
     let vars = on.vars();
     let primes = primes_of(on, dc, budget, stop)?;
-    let required = on.and_not(dc).minterms();
-    check_matrix(&primes, vars, required.len())?;
+    let need = on.and_not(dc);
+    check_matrix(&primes, &need, budget)?;
+    let required = need.minterms();
     let mut row_of = vec![u32::MAX; 1usize << vars];
     for (r, &m) in required.iter().enumerate() {
         row_of[m] = r as u32;
     }
-    let mut rows = vec![Vec::new(); required.len()];
-    for (c, p) in primes.iter().enumerate() {
-        for m in p.minterms() {
-            if row_of[m] != u32::MAX {
-                rows[row_of[m] as usize].push(c as u32);
+    let rows = pack_rows(required.len(), |entry| {
+        for (c, p) in primes.iter().enumerate() {
+            for m in p.minterms() {
+                if row_of[m] != u32::MAX {
+                    entry(row_of[m], c as u32);
+                }
             }
         }
-    }
+    });
     let literals: Vec<u64> = primes
         .iter()
         .map(|p| (vars - p.free.count_ones() as usize) as u64)
@@ -573,7 +616,7 @@ pub(crate) struct Solution {
 /// `term + literals[c]`, where `term` exceeds the literals of any cover, so
 /// that fewer terms always win.
 pub(crate) fn solve_cover(
-    rows: Vec<Vec<u32>>,
+    rows: Rows,
     literals: &[u64],
     vars: usize,
     budget: &Budget,
@@ -581,13 +624,9 @@ pub(crate) fn solve_cover(
 ) -> Result<Solution, Stopped> {
     // A search never picks more columns than there are rows.
     let term = (rows.len() as u64) * (vars as u64) + 1;
-    let mut packed = Rows::default();
-    for row in &rows {
-        packed.push(row.iter().copied());
-    }
     let matrix = Matrix {
         mult: vec![[0; 2]; rows.len()],
-        rows: packed,
+        rows,
         cost: literals.iter().map(|&l| term + l).collect(),
         id: (0..literals.len() as u32).collect(),
     };
@@ -597,8 +636,7 @@ pub(crate) fn solve_cover(
         cut: false,
         nodes: 0,
         max_nodes: budget.max_nodes,
-        work: 0,
-        max_work: budget.max_work,
+        work: Work::new(budget.max_work),
         exhausted: false,
         stop,
         cancelled: false,
@@ -623,7 +661,7 @@ const SCALE: i64 = 256;
 /// Lists of column indices, one per row, stored end to end: row `r` is
 /// `entries[start[r]..start[r + 1]]`.
 #[derive(Clone)]
-struct Rows {
+pub(crate) struct Rows {
     start: Vec<u32>,
     entries: Vec<u32>,
 }
@@ -811,15 +849,25 @@ fn subset_live(a: &[u32], b: &[u32], live: impl Fn(u32) -> bool) -> bool {
 /// changes; chosen columns are added to `chosen` and `cost`. `None` when a
 /// row can no longer be covered.
 ///
-/// When `stop` says so, the reductions made so far come back (each of them
-/// sound on its own), so that a cancelled search ends soon.
-fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> Option<Matrix> {
+/// When `stop` says so, or the work is over budget, the reductions made so
+/// far come back (each of them sound on its own), so that a cancelled or
+/// costly search ends soon: on a matrix of tens of millions of entries the
+/// dominance checks alone would take tens of seconds.
+fn reduce(
+    mut m: Matrix,
+    chosen: &mut Vec<u32>,
+    cost: &mut u64,
+    work: &mut Work,
+    stop: Stop,
+) -> Option<Matrix> {
     loop {
         let (rows, cols) = (m.rows.len(), m.cost.len());
         let mut row_live = vec![true; rows];
         let mut col_live = vec![true; cols];
         let mut picked = vec![false; cols];
         let mut changed = false;
+        // The scan, and the restriction when it picks columns.
+        work.add(2 * m.rows.entries.len() as u64);
         for row in m.rows.iter() {
             match row {
                 [] => return None,
@@ -837,37 +885,45 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> O
             for (r, row) in m.rows.iter().enumerate() {
                 row_live[r] = !row.iter().any(|&c| picked[c as usize]);
             }
+            // Dropping the rows of the picked columns, and those columns,
+            // leaves no row empty: the result may be handed back.
             m = m.restrict(&row_live, &col_live);
+            if work.over() {
+                return Some(m);
+            }
             continue;
         }
         // No row is empty here, so the matrix may be handed back.
-        if stop() {
+        if work.over() || stop() {
             return Some(m);
         }
         let col_rows = m.col_rows();
+        work.add(m.rows.entries.len() as u64);
         // Row dominance: a row whose columns include all of another row's is
         // covered whenever that row is. Such a row holds the other row's
         // first column, so only that column's rows are candidates.
         for q in 0..rows {
-            if q % REDUCE_POLL == REDUCE_POLL - 1 && stop() {
+            if work.over() || (q % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
                 return Some(m.restrict(&row_live, &col_live));
             }
             if !row_live[q] {
                 continue;
             }
             let len_q = m.rows[q].len();
-            for &r in &col_rows[m.rows[q][0] as usize] {
+            let candidates = &col_rows[m.rows[q][0] as usize];
+            work.add(candidates.len() as u64);
+            for &r in candidates {
                 let r = r as usize;
                 if r == q || !row_live[r] {
                     continue;
                 }
                 let len_r = m.rows[r].len();
-                if len_r >= len_q
-                    && (len_r > len_q || q < r)
-                    && subset_live(&m.rows[q], &m.rows[r], |_| true)
-                {
-                    row_live[r] = false;
-                    changed = true;
+                if len_r >= len_q && (len_r > len_q || q < r) {
+                    work.add((len_q + len_r) as u64);
+                    if subset_live(&m.rows[q], &m.rows[r], |_| true) {
+                        row_live[r] = false;
+                        changed = true;
+                    }
                 }
             }
         }
@@ -878,8 +934,9 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> O
             .iter()
             .map(|rs| rs.iter().filter(|&&r| row_live[r as usize]).count())
             .collect();
+        work.add(m.rows.entries.len() as u64);
         for a in 0..cols {
-            if a % REDUCE_POLL == REDUCE_POLL - 1 && stop() {
+            if work.over() || (a % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
                 return Some(m.restrict(&row_live, &col_live));
             }
             let Some(&first) = col_rows[a].iter().find(|&&r| row_live[r as usize]) else {
@@ -887,7 +944,9 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> O
                 changed = true;
                 continue;
             };
-            let dominated = m.rows[first as usize].iter().any(|&b| {
+            let candidates = &m.rows[first as usize];
+            work.add(candidates.len() as u64);
+            let dominated = candidates.iter().any(|&b| {
                 let b = b as usize;
                 if b == a || !col_live[b] {
                     return false;
@@ -895,9 +954,11 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> O
                 let (ca, cb) = (m.cost[a], m.cost[b]);
                 let (na, nb) = (live_count[a], live_count[b]);
                 let better = cb < ca || (cb == ca && (nb > na || b < a));
-                better
-                    && nb >= na
-                    && subset_live(&col_rows[a], &col_rows[b], |r| row_live[r as usize])
+                if !(better && nb >= na) {
+                    return false;
+                }
+                work.add((col_rows[a].len() + col_rows[b].len()) as u64);
+                subset_live(&col_rows[a], &col_rows[b], |r| row_live[r as usize])
             });
             if dominated {
                 col_live[a] = false;
@@ -907,6 +968,7 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> O
         if !changed {
             return Some(m);
         }
+        work.add(m.rows.entries.len() as u64);
         m = m.restrict(&row_live, &col_live);
     }
 }
@@ -914,6 +976,40 @@ fn reduce(mut m: Matrix, chosen: &mut Vec<u32>, cost: &mut u64, stop: Stop) -> O
 /// Rows or columns between two polls of the stop check in [`reduce`] and
 /// [`swap_down`].
 const REDUCE_POLL: usize = 1024;
+
+/// Work of the cover search against [`Budget::max_work`], in covering-matrix
+/// entries visited. Past the budget, the optional steps (dominance,
+/// exchanges, more subgradient steps, branching) are skipped; the few that
+/// give every component a bound and a cover run on to twice the budget, so
+/// the search as a whole never runs much past that, whatever the matrix.
+struct Work {
+    spent: u64,
+    limit: u64,
+}
+
+impl Work {
+    fn new(limit: u64) -> Work {
+        Work { spent: 0, limit }
+    }
+
+    fn add(&mut self, entries: u64) {
+        self.spent = self.spent.saturating_add(entries);
+    }
+
+    fn over(&self) -> bool {
+        self.spent > self.limit
+    }
+
+    /// What is left of the budget.
+    fn left(&self) -> u64 {
+        self.limit.saturating_sub(self.spent)
+    }
+
+    /// What is left before the hard limit, twice the budget.
+    fn hard_left(&self) -> u64 {
+        self.limit.saturating_mul(2).saturating_sub(self.spent)
+    }
+}
 
 /// A cover of part of the problem: its columns, cost, a lower bound on the
 /// cost of any cover, and whether the cover is proven of least cost.
@@ -933,8 +1029,7 @@ struct Solver<'a> {
     cut: bool,
     nodes: u64,
     max_nodes: u64,
-    work: u64,
-    max_work: u64,
+    work: Work,
     exhausted: bool,
     stop: Stop<'a>,
     /// Whether `stop` said so: everything left is skipped, and the result
@@ -1009,7 +1104,7 @@ impl Solver<'_> {
     fn solve(&mut self, m: Matrix, effort: Effort) -> Part {
         let mut chosen = Vec::new();
         let mut cost = 0;
-        let Some(m) = reduce(m, &mut chosen, &mut cost, self.stop) else {
+        let Some(m) = reduce(m, &mut chosen, &mut cost, &mut self.work, self.stop) else {
             // Unreachable for feasible matrices; claim nothing.
             return Part {
                 columns: chosen,
@@ -1060,8 +1155,9 @@ impl Solver<'_> {
                     self.stop,
                     &mut |_, _| best.0,
                 );
-                self.work +=
-                    component.rows.entries.len() as u64 * (PRIMAL_PASSES * more.steps as u64 + 8);
+                self.work.add(
+                    component.rows.entries.len() as u64 * (PRIMAL_PASSES * more.steps as u64 + 8),
+                );
                 bound = bound.max(more.cost);
             }
             let outer_cut = std::mem::take(&mut self.cut);
@@ -1103,9 +1199,10 @@ impl Solver<'_> {
                 best.0
             },
         );
-        self.work += m.rows.entries.len() as u64 * (PRIMAL_PASSES * bound.steps as u64 + 8);
+        self.work
+            .add(m.rows.entries.len() as u64 * (PRIMAL_PASSES * bound.steps as u64 + 8));
         if bound.cost < best.0 {
-            let better = swap_down(m, col_rows, &best.1, self.stop);
+            let better = swap_down(m, col_rows, &best.1, &mut self.work, self.stop);
             if better.0 < best.0 {
                 best = better;
             }
@@ -1115,12 +1212,17 @@ impl Solver<'_> {
 
     /// `effort` with no more steps than the work left, divided by `share`,
     /// affords (at `PRIMAL_PASSES` passes over `entries` each), but at least
-    /// `MIN_STEPS`, so that every component gets a bound and a cover.
+    /// `MIN_STEPS` while the hard limit affords them, so that every
+    /// component gets a bound and a cover without the search running past
+    /// twice its budget.
     fn affordable(&self, effort: Effort, entries: usize, share: u64) -> Effort {
-        let left = self.max_work.saturating_sub(self.work) / share;
-        let steps = left / (PRIMAL_PASSES * entries.max(1) as u64);
+        let per_step = PRIMAL_PASSES * entries.max(1) as u64;
+        let steps = (self.work.left() / share / per_step) as usize;
+        let floor = ((self.work.hard_left() / per_step) as usize)
+            .min(MIN_STEPS)
+            .min(effort.steps);
         Effort {
-            steps: (steps as usize).clamp(MIN_STEPS.min(effort.steps), effort.steps),
+            steps: steps.clamp(floor, effort.steps),
             ..effort
         }
     }
@@ -1134,7 +1236,7 @@ impl Solver<'_> {
     fn refine(&mut self, m: &Matrix, col_rows: &Rows, reduced: &[i64], best: &mut (u64, Vec<u32>)) {
         let rows = m.rows.len();
         for share in REFINE_SHARES {
-            if self.work > self.max_work || self.stopped() {
+            if self.work.over() || self.stopped() {
                 break;
             }
             let mut columns: Vec<usize> = best
@@ -1167,6 +1269,7 @@ impl Solver<'_> {
                 m.restrict(&row_live, &col_live),
                 &mut chosen,
                 &mut cost,
+                &mut self.work,
                 self.stop,
             ) else {
                 continue;
@@ -1181,7 +1284,7 @@ impl Solver<'_> {
             if cost < best.0 {
                 chosen.sort_unstable();
                 let cover = without_redundant(m, col_rows, &chosen);
-                let better = swap_down(m, col_rows, &cover.1, self.stop);
+                let better = swap_down(m, col_rows, &cover.1, &mut self.work, self.stop);
                 *best = if better.0 < cover.0 { better } else { cover };
             }
         }
@@ -1202,14 +1305,15 @@ impl Solver<'_> {
         let depth = path.len();
         loop {
             self.nodes += 1;
-            // Reduction visits the matrix about this often (the bound's
-            // steps are counted as they are taken).
-            self.work += m.rows.entries.len() as u64 * 8;
-            if self.nodes > self.max_nodes || self.work > self.max_work || self.stopped() {
+            // The node's components, column lists and children visit the
+            // matrix about this often (the reduction and the bound's steps
+            // are counted as they are taken).
+            self.work.add(m.rows.entries.len() as u64 * 3);
+            if self.nodes > self.max_nodes || self.work.over() || self.stopped() {
                 self.exhausted = true;
                 break;
             }
-            let Some(reduced) = reduce(m, path, &mut cost, self.stop) else {
+            let Some(reduced) = reduce(m, path, &mut cost, &mut self.work, self.stop) else {
                 break;
             };
             match self.branch_reduced(reduced, cost, path, best) {
@@ -1252,7 +1356,8 @@ impl Solver<'_> {
                     self.stop,
                     &mut |_, _| u64::MAX,
                 );
-                self.work += c.rows.entries.len() as u64 * 2 * b.steps as u64;
+                self.work
+                    .add(c.rows.entries.len() as u64 * 2 * b.steps as u64);
                 bound = bound.saturating_add(b.cost);
                 parts.push(c);
             }
@@ -1282,7 +1387,8 @@ impl Solver<'_> {
             self.stop,
             &mut |_, _| room,
         );
-        self.work += m.rows.entries.len() as u64 * 2 * bound.steps as u64;
+        self.work
+            .add(m.rows.entries.len() as u64 * 2 * bound.steps as u64);
         if bound.cost >= room {
             return None;
         }
@@ -1427,7 +1533,13 @@ fn without_redundant(m: &Matrix, col_rows: &Rows, cover: &[u32]) -> (u64, Vec<u3
 /// columns `S` cover alone replaces them all when that saves a term (two or
 /// more) or a literal (one, dearer), provided the other rows of `S` stay
 /// covered.
-fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32], stop: Stop) -> (u64, Vec<u32>) {
+fn swap_down(
+    m: &Matrix,
+    col_rows: &Rows,
+    cover: &[u32],
+    work: &mut Work,
+    stop: Stop,
+) -> (u64, Vec<u32>) {
     let cols = m.cost.len();
     let mut chosen = vec![false; cols];
     let mut times = vec![0u32; m.rows.len()];
@@ -1444,19 +1556,21 @@ fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32], stop: Stop) -> (u64, Ve
     'passes: for _ in 0..4 {
         let mut changed = false;
         for d in 0..cols {
-            // Stopped: the cover so far is a cover.
-            if d % REDUCE_POLL == REDUCE_POLL - 1 && stop() {
+            // Stopped or out of budget: the cover so far is a cover.
+            if work.over() || (d % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
                 break 'passes;
             }
             if chosen[d] {
                 continue;
             }
             let mut candidates = Vec::new();
+            work.add(col_rows[d].len() as u64);
             for &r in &col_rows[d] {
                 in_d[r as usize] = d;
                 if times[r as usize] != 1 {
                     continue;
                 }
+                work.add(m.rows[r as usize].len() as u64);
                 for &c in &m.rows[r as usize] {
                     let c = c as usize;
                     if chosen[c] {
@@ -1472,6 +1586,7 @@ fn swap_down(m: &Matrix, col_rows: &Rows, cover: &[u32], stop: Stop) -> (u64, Ve
             let replaced: Vec<usize> = candidates
                 .into_iter()
                 .filter(|&c| {
+                    work.add(col_rows[c].len() as u64);
                     let alone = col_rows[c]
                         .iter()
                         .filter(|&&r| times[r as usize] == 1)

@@ -24,7 +24,7 @@
 //! assert_eq!(m.shared().len(), 1);
 //! ```
 
-use crate::minimize::{Implicant, MAX_MATRIX, Stop, Stopped, never, primes_of, solve_cover, sop};
+use crate::minimize::{Implicant, Stop, Stopped, never, pack_rows, primes_of, solve_cover, sop};
 use crate::{Budget, Cover, Cube, Interrupted, TooLarge, TruthTable};
 use std::collections::HashSet;
 
@@ -209,9 +209,12 @@ fn multi(
         .iter()
         .map(|p| (1u64 << p.free.count_ones()) * outputs.len() as u64)
         .sum();
-    if entries > MAX_MATRIX {
+    if entries > budget.max_entries {
         return Err(refuse(
-            format!("a covering matrix of more than {MAX_MATRIX} entries"),
+            format!(
+                "a covering matrix of more than {} entries",
+                budget.max_entries
+            ),
             outputs,
         )
         .into());
@@ -224,17 +227,18 @@ fn multi(
                 .collect()
         })
         .collect();
-    let mut rows = vec![Vec::new(); total_rows];
-    for (c, p) in columns.iter().enumerate() {
-        for &i in &serves[c] {
-            for m in p.minterms() {
-                let r = rows_of_output[i][m];
-                if r != u32::MAX {
-                    rows[r as usize].push(c as u32);
+    let rows = pack_rows(total_rows, |entry| {
+        for (c, p) in columns.iter().enumerate() {
+            for &i in &serves[c] {
+                for m in p.minterms() {
+                    let r = rows_of_output[i][m];
+                    if r != u32::MAX {
+                        entry(r, c as u32);
+                    }
                 }
             }
         }
-    }
+    });
     let literals: Vec<u64> = columns
         .iter()
         .map(|p| (vars - p.free.count_ones() as usize) as u64)

@@ -381,6 +381,81 @@ fn too_many_inputs_is_a_clear_outcome() {
     assert!(err.reason.contains("17 inputs"), "{}", err.reason);
 }
 
+/// The function of `n` inputs that is 1 when at least two inputs are 1 and
+/// at least two are 0. Its prime implicants are the products of two inputs
+/// and two negated inputs, C(n, 2) · C(n - 2, 2) of them, each holding
+/// 2^(n - 4) minterms, all required (common practice: a product implies the
+/// function exactly when it fixes two inputs at 1 and two at 0, and no
+/// literal of such a product can be dropped).
+fn two_and_two(n: usize) -> TruthTable {
+    let ms: Vec<usize> = (0..1usize << n)
+        .filter(|m| (2..=n - 2).contains(&(m.count_ones() as usize)))
+        .collect();
+    TruthTable::from_minterms(n, &ms)
+}
+
+#[test]
+fn a_covering_matrix_past_its_entry_budget_is_refused_at_once() {
+    // 16 inputs: 120 · 91 = 10,920 primes of 4,096 minterms, 44.7 million
+    // entries, past the default 2^23. Built and searched, this matrix took
+    // 17 s and 630 MB; refused, it costs the prime generation alone.
+    let on = two_and_two(16);
+    let none = TruthTable::zero(16);
+    let err = minimize_sop(&on, &none, &Budget::default()).unwrap_err();
+    assert_eq!(err.vars, 16);
+    // 2^16 minus the input vectors with 0, 1, 15 or 16 ones.
+    assert_eq!(err.on_set, 65_536 - 1 - 16 - 16 - 1);
+    assert!(
+        err.reason.contains("10920 prime implicants"),
+        "{}",
+        err.reason
+    );
+    // The product of sums minimizes the complement (at most one input at
+    // 1, or at most one at 0: 34 minterms), which the limit leaves alone:
+    // its 32 primes (15 inputs fixed at 0, or at 1) each hold a minterm
+    // with a single 1 or a single 0 that no other holds, so all are
+    // essential.
+    let pos = minimize_pos(&on, &none, &Budget::default()).unwrap();
+    assert_eq!(pos.cover.truth_table(), !&on);
+    assert_eq!((pos.cover.len(), pos.proven_minimal), (32, true));
+}
+
+#[test]
+fn the_cover_search_keeps_to_its_work_budget() {
+    // 14 inputs: 91 · 66 = 6,006 primes of 1,024 minterms, 6.1 million
+    // entries, within the default entry budget. Without a work budget the
+    // matrix is reduced by no dominance and climbed by no subgradient step:
+    // what comes back is the greedy cover and the bound of an independent
+    // set of rows, a true but unproven certificate. With the default budget
+    // the search goes further, never to a larger cover.
+    let on = two_and_two(14);
+    let none = TruthTable::zero(14);
+    let no_work = Budget {
+        max_work: 0,
+        ..Budget::default()
+    };
+    let cut = minimize_sop(&on, &none, &no_work).unwrap();
+    assert_eq!(cut.primes, 6006);
+    assert_eq!(cut.cover.truth_table(), on);
+    assert!(!cut.proven_minimal);
+    assert!(cut.lower_bound < cut.cover.len());
+    let full = minimize_sop(&on, &none, &Budget::default()).unwrap();
+    assert_eq!(full.cover.truth_table(), on);
+    assert!(full.cover.len() <= cut.cover.len());
+    assert!(cut.lower_bound <= full.cover.len() && full.lower_bound <= full.cover.len());
+    // Every term is a prime: two inputs at 1, two at 0.
+    for c in &full.cover.cubes {
+        let (ones, zeros) = (0..14).fold((0, 0), |(o, z), i| {
+            match (c.zero >> i & 1, c.one >> i & 1) {
+                (0, 1) => (o + 1, z),
+                (1, 0) => (o, z + 1),
+                _ => (o, z),
+            }
+        });
+        assert_eq!((ones, zeros), (2, 2));
+    }
+}
+
 #[test]
 fn constants() {
     let none = TruthTable::zero(3);
