@@ -1,6 +1,10 @@
 //! Analyses of a given sum of products: redundant terms, redundant literals,
 //! static hazards, and the hazard-free cover.
 //!
+//! They work on truth tables: each panics, as [`TruthTable`] does, when the
+//! cover has more than [`crate::MAX_VARS`] inputs or the don't-cares are
+//! over a different number of inputs.
+//!
 //! ```
 //! use implica_logic::{Budget, Cover, Cube, TruthTable, hazard_free_cover, redundant_terms, static1_hazards};
 //! // a&b | !a&c | b&c over (a, b, c): the consensus term b&c is redundant,
@@ -112,6 +116,12 @@ pub fn static0_hazards(complement: &Cover, dc: &TruthTable) -> Vec<(usize, usize
 /// `cover` with prime implicants (of the function `on`, free on `dc`) added
 /// until no static-1 hazard is left: for each hazardous pair, a prime with
 /// fewest literals that contains both minterms. The function is unchanged.
+///
+/// # Errors
+///
+/// When the primes are past `budget`, or when `cover` does not compute `on`
+/// outside `dc` (the reason names an input row where they differ): the
+/// primes of `on` are then not the terms that could mend the cover.
 pub fn hazard_free_cover(
     cover: &Cover,
     on: &TruthTable,
@@ -119,6 +129,28 @@ pub fn hazard_free_cover(
     budget: &Budget,
 ) -> Result<Cover, TooLarge> {
     let vars = cover.vars;
+    let mismatch = |reason: String| TooLarge {
+        reason,
+        vars,
+        on_set: on.and_not(dc).count_ones(),
+    };
+    if on.vars() != vars || dc.vars() != vars {
+        return Err(mismatch(format!(
+            "a cover over {vars} inputs, a function over {} and don't-cares over {}",
+            on.vars(),
+            dc.vars()
+        )));
+    }
+    let care = !dc;
+    if let Some(row) = cover
+        .truth_table()
+        .and(&care)
+        .counterexample(&on.and(&care))
+    {
+        return Err(mismatch(format!(
+            "the cover is not the function: they differ at input row {row}"
+        )));
+    }
     let primes = prime_implicants(on, dc, budget)?;
     let mut out = cover.clone();
     loop {
@@ -127,13 +159,19 @@ pub fn hazard_free_cover(
             return Ok(out);
         };
         let (ca, cb) = (Cube::minterm(vars, a), Cube::minterm(vars, b));
-        let fix = primes
+        // Both rows are required and adjacent, so the cube joining them is
+        // an implicant, inside some prime.
+        let Some(fix) = primes
             .cubes
             .iter()
             .filter(|p| p.contains(&ca) && p.contains(&cb))
             .min_by_key(|p| p.literals(vars))
             .copied()
-            .expect("two adjacent minterms of the function lie in one prime");
+        else {
+            return Err(mismatch(format!(
+                "no prime implicant joins input rows {a} and {b}"
+            )));
+        };
         out.cubes.push(fix);
     }
 }

@@ -226,7 +226,12 @@ impl Bdd {
         self.apply(Op::Xor, f.0, 1, effort).map(BddRef)
     }
 
-    /// The function of an expression (its variables must be below [`Bdd::vars`]).
+    /// The function of an expression.
+    ///
+    /// # Panics
+    ///
+    /// When a variable of `e` is not below [`Bdd::vars`]. The recursion
+    /// follows the nesting of `e` (see [`BoolExpr`]).
     pub fn from_expr(&mut self, e: &BoolExpr, effort: &mut Effort) -> Result<BddRef, Interrupted> {
         match e {
             BoolExpr::Const(b) => Ok(if *b { BddRef::TRUE } else { BddRef::FALSE }),

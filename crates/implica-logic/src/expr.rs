@@ -15,6 +15,12 @@
 use crate::{Cover, TruthTable};
 
 /// A Boolean expression over variables `0..n`.
+///
+/// Its operations (and its `Drop`) recurse once per level of nesting: a tree
+/// nested some tens of thousands of levels deep can exhaust the thread's
+/// stack. Trees from `.imp` files are nested at most 128 levels (the parser's
+/// limit); a caller building deeper trees should flatten them (an `And` takes
+/// any number of operands).
 #[derive(Debug, Clone, PartialEq, Eq, Hash)]
 pub enum BoolExpr {
     Const(bool),

@@ -52,6 +52,11 @@ fn cost(cover: &Cover) -> (usize, usize) {
 /// assert_eq!(r.cover.len(), 2);
 /// assert_eq!(r.cover.literals(), 2);
 /// ```
+///
+/// # Panics
+///
+/// When `on` and `dc` are over different numbers of inputs, or over more
+/// than 64.
 pub fn minimize_heuristic(
     on: &Cover,
     dc: &Cover,

@@ -15,6 +15,14 @@ pub const MAX_VARS: usize = 20;
 
 /// A Boolean function of `n` inputs as 2^n bits, 64 to a word. Bit `m` is
 /// the value on minterm `m`; variable 0 is the most significant bit of `m`.
+///
+/// # Panics
+///
+/// As slices do on an index out of range, a table panics when asked for
+/// more than [`MAX_VARS`] inputs, for a variable or minterm it does not
+/// have, or for an operation with a table over a different number of
+/// inputs: these are mistakes of the caller, not of the data (the analysis
+/// checks the inputs of a signal against [`MAX_VARS`] before it builds one).
 #[derive(Clone, PartialEq, Eq, Hash)]
 pub struct TruthTable {
     vars: usize,

@@ -119,7 +119,8 @@ impl Cover {
         }
     }
 
-    /// The union of two covers over the same inputs.
+    /// The union of two covers over the same inputs (panics when their
+    /// inputs differ).
     pub fn union(&self, other: &Cover) -> Cover {
         assert_eq!(self.vars, other.vars, "covers over different inputs");
         let mut cubes = self.cubes.clone();

@@ -107,3 +107,30 @@ fn static_zero_hazard_of_a_product_of_sums() {
         vec![(0, 4)]
     );
 }
+
+#[test]
+fn a_hazard_free_cover_of_another_function_is_refused() {
+    // The cover A'D + AC' (the example above without its third term) is not
+    // the function Σm(1, 3, 5, 7, 8, 9, 12, 13, 14, 15): it misses rows 14
+    // and 15 (ABCD' and ABCD, which only AB covered). Asked to mend it, the analysis says
+    // where they differ instead of adding primes of a function the cover
+    // does not compute (this used to end in a panic).
+    let on = TruthTable::from_minterms(4, &[1, 3, 5, 7, 8, 9, 12, 13, 14, 15]);
+    let none = TruthTable::zero(4);
+    let partial = cover(4, &["A'D", "AC'"]);
+    let err = hazard_free_cover(&partial, &on, &none, &Budget::default()).unwrap_err();
+    assert!(
+        err.reason.contains("differ at input row 14"),
+        "{}",
+        err.reason
+    );
+    // Under don't-cares on rows 14 and 15 the same cover is the function,
+    // and is mended.
+    let dc = TruthTable::from_minterms(4, &[14, 15]);
+    let free = hazard_free_cover(&partial, &on, &dc, &Budget::default()).unwrap();
+    assert!(static1_hazards(&free, &dc).is_empty());
+    // A cover over other inputs is refused too.
+    let three = TruthTable::zero(3);
+    let err = hazard_free_cover(&partial, &three, &three, &Budget::default()).unwrap_err();
+    assert!(err.reason.contains("over 4 inputs"), "{}", err.reason);
+}
