@@ -57,6 +57,15 @@ pub fn redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<usize> {
 /// `cover` computes; dropping a literal only grows the term, so it is
 /// redundant when the grown term stays inside the function or the
 /// don't-cares.
+///
+/// ```
+/// use implica_logic::{Cover, Cube, TruthTable, redundant_literals};
+/// // a | !a & b over (a, b): the `!a` of the second term is redundant
+/// // (a | b is the same function; common practice).
+/// let lit = |i, p| Cube::literal(2, i, p);
+/// let f = Cover { vars: 2, cubes: vec![lit(0, true), lit(0, false).and(&lit(1, true))] };
+/// assert_eq!(redundant_literals(&f, &TruthTable::zero(2)), vec![(1, 0)]);
+/// ```
 pub fn redundant_literals(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
     let allowed = cover.truth_table().or(dc);
     let mut out = Vec::new();
@@ -109,6 +118,20 @@ pub fn static1_hazards(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
 /// its complement (as [`crate::minimize_pos`] returns it): pairs of adjacent
 /// minterms where the function must be 0 on both but no single sum term is 0
 /// on both.
+///
+/// ```
+/// use implica_logic::{Cover, Cube, TruthTable, static0_hazards};
+/// // (a | b) & (!a | c) over (a, b, c) is 0 on !a & !b and on a & !c, so
+/// // its complement's sum is !a & !b | a & !c. Rows 000 and 100 are both
+/// // 0, adjacent, and no one sum term is 0 on both: a change of `a` with
+/// // b = c = 0 can glitch the output to 1 (common practice).
+/// let lit = |i, p| Cube::literal(3, i, p);
+/// let complement = Cover {
+///     vars: 3,
+///     cubes: vec![lit(0, false).and(&lit(1, false)), lit(0, true).and(&lit(2, false))],
+/// };
+/// assert_eq!(static0_hazards(&complement, &TruthTable::zero(3)), vec![(0, 4)]);
+/// ```
 pub fn static0_hazards(complement: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
     static1_hazards(complement, dc)
 }

@@ -282,6 +282,25 @@ impl Bdd {
     }
 
     /// The constant value, when `f` is constant.
+    ///
+    /// ```
+    /// use implica_logic::{Bdd, Effort};
+    /// // Over 70 inputs: x5 & x69 with x69 fixed to 0 is constant 0; with
+    /// // x69 fixed to 1 it is x5, which is not constant.
+    /// let mut bdd = Bdd::new(70);
+    /// let mut effort = Effort::new(100_000);
+    /// let (x5, x69) = (bdd.var(5).unwrap(), bdd.var(69).unwrap());
+    /// let f = bdd.and(x5, x69, &mut effort).unwrap();
+    /// let low = bdd.restrict(f, 69, false, &mut effort).unwrap();
+    /// assert_eq!(bdd.constant(low), Some(false));
+    /// let high = bdd.restrict(f, 69, true, &mut effort).unwrap();
+    /// assert_eq!((bdd.constant(high), high), (None, x5));
+    /// let mut inputs = vec![false; 70];
+    /// inputs[5] = true;
+    /// assert!(!bdd.eval(f, &inputs));
+    /// inputs[69] = true;
+    /// assert!(bdd.eval(f, &inputs));
+    /// ```
     pub fn constant(&self, f: BddRef) -> Option<bool> {
         match f.0 {
             0 => Some(false),

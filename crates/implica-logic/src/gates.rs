@@ -21,6 +21,21 @@
 //! // inverter of `raining`, two levels.
 //! let c = Cost::of_expr(&vent);
 //! assert_eq!((c.terms, c.literals, c.gates2, c.inverters, c.depth), (2, 3, 2, 1, 2));
+//!
+//! // NOR only: the product `hot & !raining` is the NOR of `raining` and
+//! // `!hot`, the sum a NOR of `manual` and that, inverted.
+//! let nor = GateNetwork::from_expr(&vent, GateKind::Nor);
+//! assert!(nor.uses_only(GateKind::Nor));
+//! assert_eq!(nor.truth_table(3).unwrap(), vent.truth_table(3));
+//! let names = |i: usize| ["hot", "raining", "manual"][i].to_string();
+//! assert_eq!(
+//!     nor.to_text(&names),
+//!     "g0 = !hot\n\
+//!      g1 = !(raining | g0)\n\
+//!      g2 = !(manual | g1)\n\
+//!      g3 = !g2\n\
+//!      out = g3\n"
+//! );
 //! ```
 //!
 //! Conventions (ours, documented here once):

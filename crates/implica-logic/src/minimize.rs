@@ -470,6 +470,24 @@ pub fn prime_implicants(
 
 /// The minimal sum of products of the function that is 1 on `on`, 0 outside
 /// `on | dc`, and free on `dc`.
+///
+/// The certificate says whether the cover is proven minimal, and otherwise
+/// how many terms any cover needs:
+///
+/// ```
+/// use implica_logic::{Budget, TruthTable, minimize_sop};
+/// // 1 when two to six of eight inputs are 1: 420 primes, none essential.
+/// let ones: Vec<usize> = (0..256usize).filter(|m| (2..=6).contains(&m.count_ones())).collect();
+/// let f = TruthTable::from_minterms(8, &ones);
+/// let none = TruthTable::zero(8);
+/// // Without search work: a greedy cover, and a bound it does not meet.
+/// let quick = minimize_sop(&f, &none, &Budget { max_work: 0, ..Budget::default() }).unwrap();
+/// assert_eq!((quick.cover.len(), quick.proven_minimal, quick.lower_bound), (29, false, 28));
+/// // "29 terms found, at least 28 needed"; the default budget settles it.
+/// let exact = minimize_sop(&f, &none, &Budget::default()).unwrap();
+/// assert_eq!((exact.cover.len(), exact.proven_minimal, exact.lower_bound), (28, true, 28));
+/// assert_eq!((exact.primes, exact.cover.truth_table()), (420, f));
+/// ```
 pub fn minimize_sop(
     on: &TruthTable,
     dc: &TruthTable,

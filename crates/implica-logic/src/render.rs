@@ -21,6 +21,55 @@
 //! );
 //! let map = render_karnaugh_map(&inputs, &open, None, Format::Markdown).unwrap();
 //! assert!(map.contains("| level \\ stopped | 0 | 1 |"));
+//!
+//! // The same table in Markdown.
+//! let md = render_truth_table(&inputs, &[open], Format::Markdown, None).unwrap();
+//! assert_eq!(
+//!     md,
+//!     "| level | stopped | open |\n\
+//!      | --- | --- | --- |\n\
+//!      | 0 | 0 | - |\n\
+//!      | 0 | 1 | 0 |\n\
+//!      | 1 | 0 | 0 |\n\
+//!      | 1 | 1 | 1 |\n"
+//! );
+//! ```
+//!
+//! Five inputs give two maps of the last four, one for each value of the
+//! first, with the groups of a cover marked:
+//!
+//! ```
+//! use implica_logic::{Budget, Format, Function, TruthTable, minimize_sop, render_karnaugh_map};
+//! // f = !d & e | a & b over (a, b, c, d, e).
+//! let ones: Vec<usize> = (0..32).filter(|m| m & 3 == 1 || m >> 3 == 3).collect();
+//! let f = TruthTable::from_minterms(5, &ones);
+//! let m = minimize_sop(&f, &TruthTable::zero(5), &Budget::default()).unwrap();
+//! let function = Function { name: "f", on: &f, dc: None };
+//! let map = render_karnaugh_map(&["a", "b", "c", "d", "e"], &function, Some(&m.cover), Format::Text).unwrap();
+//! assert_eq!(
+//!     map,
+//!     "f, a = 0\n\
+//!      \n\
+//!      b c \\ d e | 00 | 01  | 11 | 10\n\
+//!      ----------+----+-----+----+---\n\
+//!      00        | 0  | 1 a | 0  | 0\n\
+//!      01        | 0  | 1 a | 0  | 0\n\
+//!      11        | 0  | 1 a | 0  | 0\n\
+//!      10        | 0  | 1 a | 0  | 0\n\
+//!      \n\
+//!      f, a = 1\n\
+//!      \n\
+//!      b c \\ d e | 00  | 01   | 11  | 10\n\
+//!      ----------+-----+------+-----+----\n\
+//!      00        | 0   | 1 a  | 0   | 0\n\
+//!      01        | 0   | 1 a  | 0   | 0\n\
+//!      11        | 1 b | 1 ab | 1 b | 1 b\n\
+//!      10        | 1 b | 1 ab | 1 b | 1 b\n\
+//!      \n\
+//!      terms\n\
+//!      \x20 a: !d & e\n\
+//!      \x20 b: a & b\n"
+//! );
 //! ```
 //!
 //! Conventions: the first input is the most significant bit of a minterm

@@ -245,6 +245,22 @@ impl TruthTable {
 
     /// The cofactor with variable `i` fixed to `value`, still over `vars` inputs
     /// (it no longer depends on `i`).
+    ///
+    /// ```
+    /// use implica_logic::TruthTable;
+    /// // Lift door over (level, stopped, service): open = level & (stopped | service).
+    /// let v = |i| TruthTable::var(3, i);
+    /// let open = v(0).and(&v(1).or(&v(2)));
+    /// assert!(open.eval(&[true, false, true]));
+    /// assert!(!open.eval(&[false, true, true]));
+    /// // Not level: shut whatever the rest, a constant; level: it still
+    /// // depends on `stopped`, not on `level` any more.
+    /// assert!(open.cofactor(0, false).is_zero());
+    /// let level = open.cofactor(0, true);
+    /// assert!(!level.is_zero() && !level.is_one());
+    /// assert!(level.depends_on(1) && !level.depends_on(0));
+    /// assert_eq!(open.support(), vec![0, 1, 2]);
+    /// ```
     pub fn cofactor(&self, i: usize, value: bool) -> TruthTable {
         let side = TruthTable::var(self.vars, i);
         let half = if value {

@@ -108,6 +108,20 @@ impl Cover {
 
     /// The cofactor with respect to cube `p`: a cover, free in the variables
     /// `p` fixes, that equals this one everywhere inside `p`.
+    ///
+    /// ```
+    /// use implica_logic::{Cover, Cube, Effort};
+    /// // Over 50 inputs: f = x0 & x1 | !x0 & x49. With x0 = 1 it is x1, with
+    /// // x0 = 0 it is x49; with x0 = 1 and x1 = 1, constant 1.
+    /// let n = 50;
+    /// let lit = |i, p| Cube::literal(n, i, p);
+    /// let f = Cover { vars: n, cubes: vec![lit(0, true).and(&lit(1, true)), lit(0, false).and(&lit(49, true))] };
+    /// assert_eq!(f.cofactor(&lit(0, true)).cubes, vec![lit(1, true)]);
+    /// assert_eq!(f.cofactor(&lit(0, false)).cubes, vec![lit(49, true)]);
+    /// let mut effort = Effort::new(100_000);
+    /// let both = lit(0, true).and(&lit(1, true));
+    /// assert!(f.cofactor(&both).is_tautology(&mut effort).unwrap());
+    /// ```
     pub fn cofactor(&self, p: &Cube) -> Cover {
         Cover {
             vars: self.vars,
