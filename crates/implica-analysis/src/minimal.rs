@@ -115,6 +115,9 @@ fn form(
     effort: &mut Effort,
 ) -> Result<Result<Form, NoForm>, Interrupted> {
     let k = local.inputs.len();
+    // Fewest terms any form needs, when the exact minimization found it out
+    // before giving up.
+    let mut known_bound = None;
     if k <= budget.max_vars.min(implica_logic::MAX_VARS) {
         let on = f.bdd.to_truth_table(local.on, &local.inputs);
         let dc = f.bdd.to_truth_table(local.dc, &local.inputs);
@@ -124,8 +127,9 @@ fn form(
         } else {
             minimize_sop_cancellable(&on, &dc, budget, &stop)?
         };
-        if let Ok(m) = found {
-            return Ok(check_exact(m, &on, &dc, product_of_sums));
+        match found {
+            Ok(m) => return Ok(check_exact(m, &on, &dc, product_of_sums)),
+            Err(t) => known_bound = Some(t.lower_bound),
         }
     }
     if k > MAX_COVER_INPUTS {
@@ -172,12 +176,21 @@ fn form(
     let h = minimize_heuristic(&start, &dc, effort)?;
     let mut cover = h.cover;
     cover.sort_for_reading();
+    // Rows with no neighbour in the function or its don't-cares are terms of
+    // their own in every form; a cover with no more terms than that is
+    // those rows alone, the only cover of that size, so it is minimal.
+    let isolated_rows = match known_bound {
+        Some(n) => n,
+        None => isolated(f, target, local, effort)?.map_or(0, |n| n as usize),
+    };
+    let lower_bound = isolated_rows.max(usize::from(!cover.is_empty()));
+    let proven_minimal = cover.is_empty() || (isolated_rows > 0 && cover.len() <= isolated_rows);
     Ok(Ok(Form {
         expression: expression(&cover, product_of_sums),
         terms: cover.len(),
         literals: cover.literals(),
-        proven_minimal: false,
-        lower_bound: usize::from(!cover.is_empty()),
+        proven_minimal,
+        lower_bound,
         method: Method::Heuristic,
         cover,
     }))
@@ -197,7 +210,16 @@ fn isolated(
     let Ok(care) = bdd.or(target, local.dc, effort) else {
         return Ok(None);
     };
-    let mut alone = target;
+    // Only the rows the form must cover count, not those free anyway.
+    let start = (|| {
+        let free = bdd.not(local.dc, effort)?;
+        bdd.and(target, free, effort)
+    })();
+    let mut alone = match start {
+        Ok(r) => r,
+        Err(Interrupted::Cancelled) => return Err(Interrupted::Cancelled),
+        Err(Interrupted::OutOfBudget) => return Ok(None),
+    };
     for &i in &local.inputs {
         // care with input i flipped: x_i ? care|x_i=0 : care|x_i=1
         let step = (|| {

@@ -152,11 +152,7 @@ pub fn hazard_free_cover(
     budget: &Budget,
 ) -> Result<Cover, TooLarge> {
     let vars = cover.vars;
-    let mismatch = |reason: String| TooLarge {
-        reason,
-        vars,
-        on_set: on.and_not(dc).count_ones(),
-    };
+    let mismatch = |reason: String| TooLarge::of(reason, on, dc);
     if on.vars() != vars || dc.vars() != vars {
         return Err(mismatch(format!(
             "a cover over {vars} inputs, a function over {} and don't-cares over {}",

@@ -78,8 +78,53 @@ pub struct TooLarge {
     pub reason: String,
     /// Inputs of the function.
     pub vars: usize,
-    /// Minterms in the on-set (outside the don't-cares).
+    /// Minterms in the on-set (outside the don't-cares). For a product of
+    /// sums, which is minimized as the sum of products of the complement,
+    /// this and the fields below are of the complement: the off-set.
     pub on_set: usize,
+    /// The inputs every sum of products of the function reads: those where
+    /// two specified rows differing in that input alone have different
+    /// values (ascending).
+    pub support: Vec<usize>,
+    /// Fewest terms any sum of products needs, as known without the search:
+    /// the required minterms with no neighbour (one input flipped) in the
+    /// on-set or the don't-cares, each of which is a term of its own in
+    /// every cover. 24-input parity has 2^23 of them, its minimum.
+    pub lower_bound: usize,
+}
+
+impl TooLarge {
+    /// The outcome for the function 1 on `on`, free on `dc`, with what is
+    /// known of it (nothing but the reason when the two tables' inputs
+    /// differ).
+    pub(crate) fn of(reason: String, on: &TruthTable, dc: &TruthTable) -> TooLarge {
+        if on.vars() != dc.vars() {
+            return TooLarge {
+                reason,
+                vars: on.vars(),
+                on_set: on.count_ones(),
+                support: Vec::new(),
+                lower_bound: 0,
+            };
+        }
+        let specified = !dc;
+        TooLarge {
+            reason,
+            vars: on.vars(),
+            on_set: on.and_not(dc).count_ones(),
+            support: (0..on.vars())
+                .filter(|&i| on.depends_on_within(i, &specified))
+                .collect(),
+            lower_bound: isolated(on, dc).count_ones(),
+        }
+    }
+}
+
+/// The required minterms of `on` (outside `dc`) with no neighbour in
+/// `on | dc`: each is a prime implicant, and essential.
+pub(crate) fn isolated(on: &TruthTable, dc: &TruthTable) -> TruthTable {
+    let care = on.or(dc);
+    (0..on.vars()).fold(on.and_not(dc), |alone, i| alone.and_not(&care.flip(i)))
 }
 
 /// An implicant in minterm-index space: `value` with the bits of `free`
@@ -126,26 +171,26 @@ impl Implicant {
 
 fn check_size(on: &TruthTable, dc: &TruthTable, budget: &Budget) -> Result<(), TooLarge> {
     if on.vars() != dc.vars() {
-        return Err(TooLarge {
-            reason: format!(
+        return Err(TooLarge::of(
+            format!(
                 "on-set over {} inputs, don't-cares over {}",
                 on.vars(),
                 dc.vars()
             ),
-            vars: on.vars(),
-            on_set: on.count_ones(),
-        });
+            on,
+            dc,
+        ));
     }
     if on.vars() > budget.max_vars {
-        return Err(TooLarge {
-            reason: format!(
+        return Err(TooLarge::of(
+            format!(
                 "{} inputs, more than the {} handled exactly",
                 on.vars(),
                 budget.max_vars
             ),
-            vars: on.vars(),
-            on_set: on.and_not(dc).count_ones(),
-        });
+            on,
+            dc,
+        ));
     }
     Ok(())
 }
@@ -323,10 +368,13 @@ impl Stopped {
     pub(crate) fn too_large(self) -> TooLarge {
         match self {
             Stopped::TooLarge(t) => t,
+            // Unreachable: these callers' check never stops.
             Stopped::Cancelled => TooLarge {
                 reason: "cancelled".to_string(),
                 vars: 0,
                 on_set: 0,
+                support: Vec::new(),
+                lower_bound: 0,
             },
         }
     }
@@ -376,11 +424,11 @@ pub(crate) fn primes_of(
         return Err(Stopped::Cancelled);
     }
     if search.too_many {
-        return Err(Stopped::TooLarge(TooLarge {
-            reason: format!("more than {} prime implicants", budget.max_primes),
-            vars,
-            on_set: on.and_not(dc).count_ones(),
-        }));
+        return Err(Stopped::TooLarge(TooLarge::of(
+            format!("more than {} prime implicants", budget.max_primes),
+            on,
+            dc,
+        )));
     }
     let mut primes = search.primes;
     primes.sort();
@@ -393,34 +441,36 @@ pub(crate) fn primes_of(
 /// (four times as many), since building the matrix visits them all.
 fn check_matrix(
     primes: &[Implicant],
-    required: &TruthTable,
+    on: &TruthTable,
+    dc: &TruthTable,
     budget: &Budget,
 ) -> Result<(), TooLarge> {
     let visits: u64 = primes.iter().map(|p| 1u64 << p.free.count_ones()).sum();
     if visits > budget.max_entries.saturating_mul(4) {
-        return Err(TooLarge {
-            reason: format!(
+        return Err(TooLarge::of(
+            format!(
                 "{} prime implicants holding more than {} minterms in all",
                 primes.len(),
                 budget.max_entries.saturating_mul(4)
             ),
-            vars: required.vars(),
-            on_set: required.count_ones(),
-        });
+            on,
+            dc,
+        ));
     }
+    let required = on.and_not(dc);
     let mut entries = 0u64;
     for p in primes {
         entries += p.minterms().filter(|&m| required.get(m)).count() as u64;
         if entries > budget.max_entries {
-            return Err(TooLarge {
-                reason: format!(
+            return Err(TooLarge::of(
+                format!(
                     "a covering matrix of more than {} entries ({} prime implicants)",
                     budget.max_entries,
                     primes.len()
                 ),
-                vars: required.vars(),
-                on_set: required.count_ones(),
-            });
+                on,
+                dc,
+            ));
         }
     }
     Ok(())
@@ -549,9 +599,8 @@ pub(crate) fn sop(
     }
     let vars = on.vars();
     let primes = primes_of(on, dc, budget, stop)?;
-    let need = on.and_not(dc);
-    check_matrix(&primes, &need, budget)?;
-    let required = need.minterms();
+    check_matrix(&primes, on, dc, budget)?;
+    let required = on.and_not(dc).minterms();
     let mut row_of = vec![u32::MAX; 1usize << vars];
     for (r, &m) in required.iter().enumerate() {
         row_of[m] = r as u32;

@@ -24,7 +24,9 @@
 //! assert_eq!(m.shared().len(), 1);
 //! ```
 
-use crate::minimize::{Implicant, Stop, Stopped, never, pack_rows, primes_of, solve_cover, sop};
+use crate::minimize::{
+    Implicant, Stop, Stopped, isolated, never, pack_rows, primes_of, solve_cover, sop,
+};
 use crate::{Budget, Cover, Cube, Interrupted, TooLarge, TruthTable};
 use std::collections::HashSet;
 
@@ -82,13 +84,35 @@ impl MultiMinimized {
 }
 
 fn refuse(reason: String, outputs: &[(TruthTable, TruthTable)]) -> TooLarge {
+    let vars = outputs.first().map_or(0, |o| o.0.vars());
+    let parts: Vec<TooLarge> = outputs
+        .iter()
+        .map(|(on, dc)| TooLarge::of(String::new(), on, dc))
+        .collect();
+    let mut support: Vec<usize> = parts.iter().flat_map(|p| p.support.clone()).collect();
+    support.sort_unstable();
+    support.dedup();
+    // A minterm isolated in an output is a term of its own there; the
+    // outputs may share it, so the bound counts each such minterm once.
+    let lower_bound = if outputs
+        .iter()
+        .all(|(on, dc)| on.vars() == vars && dc.vars() == vars)
+    {
+        outputs
+            .iter()
+            .fold(TruthTable::zero(vars), |acc, (on, dc)| {
+                acc.or(&isolated(on, dc))
+            })
+            .count_ones()
+    } else {
+        0
+    };
     TooLarge {
         reason,
-        vars: outputs.first().map_or(0, |o| o.0.vars()),
-        on_set: outputs
-            .iter()
-            .map(|(on, dc)| on.and_not(dc).count_ones())
-            .sum(),
+        vars,
+        on_set: parts.iter().map(|p| p.on_set).sum(),
+        support,
+        lower_bound,
     }
 }
 

@@ -379,6 +379,24 @@ fn too_many_inputs_is_a_clear_outcome() {
     assert_eq!(err.vars, 17);
     assert_eq!(err.on_set, 1 << 16);
     assert!(err.reason.contains("17 inputs"), "{}", err.reason);
+    // What is known comes with it: the one input read, and no bound (every
+    // row at 1 has a neighbour at 1).
+    assert_eq!((err.support, err.lower_bound), (vec![3], 0));
+    // 18-input parity: every input read, and each of its 2^17 rows at 1 has
+    // only neighbours at 0, so each is a term of its own: the bound is the
+    // minimum of the textbook result cited in `parity_needs_every_minterm`.
+    let mut odd = TruthTable::zero(18);
+    for m in 0..(1usize << 18) {
+        odd.set(m, m.count_ones() % 2 == 1);
+    }
+    let err = minimize_sop(&odd, &TruthTable::zero(18), &Budget::default()).unwrap_err();
+    assert_eq!(err.support, (0..18).collect::<Vec<_>>());
+    assert_eq!(err.lower_bound, 1 << 17);
+    // Don't-cares on the even rows leave no row isolated (and no input
+    // necessarily read: the constant 1 agrees with the function).
+    let even = !&odd;
+    let err = minimize_sop(&odd, &even, &Budget::default()).unwrap_err();
+    assert_eq!((err.support, err.lower_bound), (vec![], 0));
 }
 
 /// The function of `n` inputs that is 1 when at least two inputs are 1 and
@@ -410,6 +428,7 @@ fn a_covering_matrix_past_its_entry_budget_is_refused_at_once() {
         "{}",
         err.reason
     );
+    assert_eq!((err.support.len(), err.lower_bound), (16, 0));
     // The product of sums minimizes the complement (at most one input at
     // 1, or at most one at 0: 34 minterms), which the limit leaves alone:
     // its 32 primes (15 inputs fixed at 0, or at 1) each hold a minterm

@@ -144,6 +144,10 @@ fn certificate(f: &Form, sums: bool) -> String {
             "{size}; not proven minimal: at least {} needed",
             plural(f.lower_bound, kind)
         ),
+        (false, implica_analysis::minimal::Method::Heuristic) if f.lower_bound > 1 => format!(
+            "{size}; found by the heuristic, not proven minimal: at least {} needed",
+            plural(f.lower_bound, kind)
+        ),
         (false, implica_analysis::minimal::Method::Heuristic) => {
             format!("{size}; found by the heuristic, not proven minimal")
         }

@@ -160,6 +160,51 @@ fn wide_signals_use_the_heuristic() {
 }
 
 #[test]
+fn heuristic_forms_carry_the_bound_of_isolated_rows() {
+    // 18 inputs: y is 1 where a0 ^ a1 ^ a2 and a3 .. a17 are all 1 (four
+    // rows, each with every neighbour at 0: a term of its own in every sum
+    // of products; common practice), or where a3 and a4 are both 0.
+    let inputs: Vec<String> = (0..18).map(|i| format!("a{i}")).collect();
+    let rest: Vec<String> = (3..18).map(|i| format!("a{i}")).collect();
+    let isolated = format!("(a0 ^ a1 ^ a2) & {}", rest.join(" & "));
+    let header = format!("input {}\noutput y\n", inputs.join(", "));
+    // The four rows alone: the heuristic's four terms are the only cover of
+    // that size, so the form is proven minimal.
+    let (doc, out) = json(
+        &["minimize", "-", "--format", "json", "--form", "sop"],
+        &format!("{header}y = {isolated}\n"),
+    );
+    assert_eq!(out.status.code(), Some(0));
+    let sop = &signal(&doc, "y")["sop"];
+    assert_eq!(sop["method"], "heuristic");
+    assert_eq!(
+        (
+            &sop["terms"],
+            &sop["literals"],
+            &sop["lower_bound"],
+            &sop["proven_minimal"]
+        ),
+        (
+            &Value::from(4),
+            &Value::from(72),
+            &Value::from(4),
+            &Value::from(true)
+        )
+    );
+    // With !a3 & !a4 besides, five terms are found, at least four needed.
+    let src = format!("{header}y = {isolated} | !a3 & !a4\n");
+    let out = run(&["minimize", "-", "--form", "sop"], &src);
+    assert_eq!(out.status.code(), Some(0));
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(
+        text.contains(
+            "5 terms, 74 literals; found by the heuristic, not proven minimal: at least 4 terms needed"
+        ),
+        "{text}"
+    );
+}
+
+#[test]
 fn table_formats() {
     let src = "input a, b, c\noutput x, y\nx = a & b\ny = on(1) dc(2) over (b, c)\n";
     let (doc, out) = json(&["table", "-", "--format", "json"], src);
