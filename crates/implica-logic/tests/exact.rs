@@ -154,6 +154,87 @@ fn term_counts_of_all_four_input_functions() {
     );
 }
 
+/// Function `bits` of `vars` inputs with its inputs permuted by `perm`
+/// (input `i` of the result reads input `perm[i]`) and negated where
+/// `negate` has a bit (bit `vars - 1 - i` for input `i`), by plain
+/// evaluation: independent of the engine.
+fn transform(vars: usize, bits: u64, perm: &[usize], negate: usize) -> u64 {
+    let mut out = 0u64;
+    for m in 0..(1usize << vars) {
+        let x = m ^ negate;
+        let mut src = 0usize;
+        for (i, &p) in perm.iter().enumerate() {
+            if (x >> (vars - 1 - i)) & 1 == 1 {
+                src |= 1 << (vars - 1 - p);
+            }
+        }
+        out |= ((bits >> src) & 1) << m;
+    }
+    out
+}
+
+fn permutations(n: usize) -> Vec<Vec<usize>> {
+    if n == 0 {
+        return vec![Vec::new()];
+    }
+    let mut out = Vec::new();
+    for p in permutations(n - 1) {
+        for at in 0..n {
+            let mut q = p.clone();
+            q.insert(at, n - 1);
+            out.push(q);
+        }
+    }
+    out
+}
+
+#[test]
+fn minimal_cost_is_the_same_across_each_class_of_negated_and_permuted_inputs() {
+    // OEIS A000370: the functions of n inputs fall into 1, 2, 4, 14, 222
+    // classes for n = 0..4 under permuting inputs, negating inputs and
+    // negating the output. The count checks this test's transforms; then,
+    // since permuting or negating inputs maps a cover to a cover of the same
+    // terms and literals, the exact minimum must be the same for every
+    // function reached so (an invariance, not a count from the source).
+    for (vars, classes) in [(0usize, 1usize), (1, 2), (2, 4), (3, 14), (4, 222)] {
+        let size = 1usize << (1 << vars);
+        let all = (1u64 << (1 << vars)) - 1;
+        let perms = permutations(vars);
+        let mut class = vec![usize::MAX; size];
+        let mut count = 0;
+        let mut cost = vec![(0usize, 0usize); size];
+        for f in 0..size as u64 {
+            let r =
+                minimize_sop(&table(vars, f), &TruthTable::zero(vars), &Budget::default()).unwrap();
+            cost[f as usize] = (r.cover.len(), r.cover.literals());
+        }
+        for f in 0..size {
+            if class[f] != usize::MAX {
+                continue;
+            }
+            for perm in &perms {
+                for negate in 0..(1usize << vars) {
+                    let g = transform(vars, f as u64, perm, negate);
+                    assert_eq!(
+                        cost[g as usize], cost[f],
+                        "{vars} inputs: {f:#x} and {g:#x} differ only in their inputs' order and sense"
+                    );
+                    // The engine's own negation of an input agrees.
+                    if perm.iter().enumerate().all(|(i, &p)| i == p) && negate.count_ones() == 1 {
+                        let i = vars - 1 - negate.trailing_zeros() as usize;
+                        assert_eq!(table(vars, f as u64).flip(i), table(vars, g));
+                    }
+                    for h in [g, !g & all] {
+                        class[h as usize] = count;
+                    }
+                }
+            }
+            count += 1;
+        }
+        assert_eq!(count, classes, "{vars} inputs");
+    }
+}
+
 #[test]
 fn largest_number_of_prime_implicants() {
     // OEIS A003039: 1, 2, 6, 13 for n = 1..4.
