@@ -52,6 +52,68 @@ pub fn redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<usize> {
         .collect()
 }
 
+/// Why a term of a cover is redundant (see [`classify_redundant_terms`]).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Redundancy {
+    /// The term lies inside the don't-cares: it is 1 only where the value
+    /// is free.
+    DontCaresOnly,
+    /// The same term as term `of` (the first other copy).
+    Duplicate { of: usize },
+    /// Term `by`, a different term, contains it (absorption, `x | x & y`).
+    Absorbed { by: usize },
+    /// No one term contains it, but the others together cover it (such as
+    /// a consensus term); `with_dont_cares` when they do only thanks to the
+    /// don't-cares.
+    Covered { with_dont_cares: bool },
+}
+
+/// The terms [`redundant_terms`] finds, each with the reason, the most
+/// specific first: inside the don't-cares, a duplicate, absorbed by one
+/// other term, or covered by the others together.
+///
+/// ```
+/// use implica_logic::{Cover, Cube, Redundancy, TruthTable, classify_redundant_terms};
+/// // a | a & b | a & b | !a & c | b & c over (a, b, c).
+/// let lit = |i, p| Cube::literal(3, i, p);
+/// let (a, ab, nac, bc) = (lit(0, true), lit(0, true).and(&lit(1, true)), lit(0, false).and(&lit(2, true)), lit(1, true).and(&lit(2, true)));
+/// let f = Cover { vars: 3, cubes: vec![a, ab, ab, nac, bc] };
+/// assert_eq!(
+///     classify_redundant_terms(&f, &TruthTable::zero(3)),
+///     vec![
+///         (1, Redundancy::Duplicate { of: 2 }),
+///         (2, Redundancy::Duplicate { of: 1 }),
+///         (4, Redundancy::Covered { with_dont_cares: false }),
+///     ]
+/// );
+/// ```
+pub fn classify_redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<(usize, Redundancy)> {
+    let vars = cover.vars;
+    redundant_terms(cover, dc)
+        .into_iter()
+        .map(|i| {
+            let c = cover.cubes[i];
+            let own = c.truth_table(vars);
+            let others = || cover.cubes.iter().enumerate().filter(move |&(j, _)| j != i);
+            let why = if dc.covers(&own) {
+                Redundancy::DontCaresOnly
+            } else if let Some((j, _)) = others().find(|&(_, d)| *d == c) {
+                Redundancy::Duplicate { of: j }
+            } else if let Some((j, _)) = others().find(|&(_, d)| d.contains(&c)) {
+                Redundancy::Absorbed { by: j }
+            } else {
+                let rest = others().fold(TruthTable::zero(vars), |acc, (_, d)| {
+                    acc.or(&d.truth_table(vars))
+                });
+                Redundancy::Covered {
+                    with_dont_cares: !rest.covers(&own),
+                }
+            };
+            (i, why)
+        })
+        .collect()
+}
+
 /// Literals that can be dropped from their term without changing the
 /// function under `dc`: `(term index, variable)`. The function is the one
 /// `cover` computes; dropping a literal only grows the term, so it is

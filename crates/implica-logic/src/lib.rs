@@ -31,7 +31,8 @@ mod truth_table;
 mod urp;
 
 pub use analysis::{
-    hazard_free_cover, redundant_literals, redundant_terms, static0_hazards, static1_hazards,
+    Redundancy, classify_redundant_terms, hazard_free_cover, redundant_literals, redundant_terms,
+    static0_hazards, static1_hazards,
 };
 pub use bdd::{Bdd, BddRef, DEFAULT_MAX_NODES};
 pub use cube::{Cover, Cube};

@@ -2,8 +2,8 @@
 //! a published hazard example.
 
 use implica_logic::{
-    Budget, Cover, Cube, TruthTable, hazard_free_cover, minimize_sop, redundant_literals,
-    redundant_terms, static0_hazards, static1_hazards,
+    Budget, Cover, Cube, Redundancy, TruthTable, classify_redundant_terms, hazard_free_cover,
+    minimize_sop, redundant_literals, redundant_terms, static0_hazards, static1_hazards,
 };
 
 /// A cover from terms written as strings over A, B, C, D: `AB'` is A & !B.
@@ -133,4 +133,49 @@ fn a_hazard_free_cover_of_another_function_is_refused() {
     let three = TruthTable::zero(3);
     let err = hazard_free_cover(&partial, &three, &three, &Budget::default()).unwrap_err();
     assert!(err.reason.contains("over 4 inputs"), "{}", err.reason);
+}
+
+#[test]
+fn redundant_terms_are_classified() {
+    // Absorption x + xy = x and the consensus theorem xy + x'z + yz =
+    // xy + x'z (Boolean-algebra identities; the project's reference list
+    // gives them as "any digital-design text").
+    let none = TruthTable::zero(3);
+    assert_eq!(
+        classify_redundant_terms(&cover(3, &["A", "AB"]), &none),
+        vec![(1, Redundancy::Absorbed { by: 0 })]
+    );
+    assert_eq!(
+        classify_redundant_terms(&cover(3, &["AB", "A'C", "BC"]), &none),
+        vec![(
+            2,
+            Redundancy::Covered {
+                with_dont_cares: false
+            }
+        )]
+    );
+    // B'C is covered by A'B' on 001 and by the don't-care on 101.
+    let dc = TruthTable::from_minterms(3, &[5]);
+    assert_eq!(
+        classify_redundant_terms(&cover(3, &["AB", "A'B'", "B'C"]), &dc),
+        vec![(
+            2,
+            Redundancy::Covered {
+                with_dont_cares: true
+            }
+        )]
+    );
+    // AB'C alone is the don't-care: 1 only where the value is free.
+    assert_eq!(
+        classify_redundant_terms(&cover(3, &["AB", "AB'C"]), &dc),
+        vec![(1, Redundancy::DontCaresOnly)]
+    );
+    // Two copies: each names the other.
+    assert_eq!(
+        classify_redundant_terms(&cover(3, &["AB", "C", "AB"]), &none),
+        vec![
+            (0, Redundancy::Duplicate { of: 2 }),
+            (2, Redundancy::Duplicate { of: 0 })
+        ]
+    );
 }
