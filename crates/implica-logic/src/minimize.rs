@@ -31,10 +31,12 @@ pub struct Budget {
     /// best cover, branch and bound), counted in covering-matrix entries
     /// visited (a measure of time that does not depend on the machine:
     /// about 10^7 entries take 0.03 to 0.05 s on the machine of
-    /// docs/benchmarks.md). Past this, as past `max_nodes`: the
-    /// reductions, exchanges and branching stop, and each independent part
-    /// of the matrix still gets a cover and a bound, on up to twice this
-    /// work.
+    /// docs/benchmarks.md). Past this, as past `max_nodes`: more
+    /// subgradient steps and branching stop, and each independent part of
+    /// the matrix still gets a cover and a bound, on up to four times this
+    /// work. The dominance reductions and the exchanges that improve a
+    /// cover have a meter of their own, also four times this work, past
+    /// which they stop (their results so far are kept).
     pub max_work: u64,
     /// Most entries of the covering matrix (the required minterms each
     /// prime holds, summed over the primes). The cover search holds about
@@ -50,7 +52,7 @@ impl Default for Budget {
             max_vars: 16,
             max_primes: 200_000,
             max_nodes: 200_000,
-            max_work: 34_000_000,
+            max_work: 30_000_000,
             max_entries: 1 << 23,
         }
     }
@@ -934,7 +936,7 @@ fn reduce(
         let mut picked = vec![false; cols];
         let mut changed = false;
         // The scan, and the restriction when it picks columns.
-        work.add(2 * m.rows.entries.len() as u64);
+        work.add_pass(2 * m.rows.entries.len() as u64);
         for row in m.rows.iter() {
             match row {
                 [] => return None,
@@ -955,22 +957,22 @@ fn reduce(
             // Dropping the rows of the picked columns, and those columns,
             // leaves no row empty: the result may be handed back.
             m = m.restrict(&row_live, &col_live);
-            if work.over() {
+            if work.passes_over() {
                 return Some(m);
             }
             continue;
         }
         // No row is empty here, so the matrix may be handed back.
-        if work.over() || stop() {
+        if work.passes_over() || stop() {
             return Some(m);
         }
         let col_rows = m.col_rows();
-        work.add(m.rows.entries.len() as u64);
+        work.add_pass(m.rows.entries.len() as u64);
         // Row dominance: a row whose columns include all of another row's is
         // covered whenever that row is. Such a row holds the other row's
         // first column, so only that column's rows are candidates.
         for q in 0..rows {
-            if work.over() || (q % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
+            if work.passes_over() || (q % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
                 return Some(m.restrict(&row_live, &col_live));
             }
             if !row_live[q] {
@@ -978,7 +980,7 @@ fn reduce(
             }
             let len_q = m.rows[q].len();
             let candidates = &col_rows[m.rows[q][0] as usize];
-            work.add(candidates.len() as u64);
+            work.add_pass(candidates.len() as u64);
             for &r in candidates {
                 let r = r as usize;
                 if r == q || !row_live[r] {
@@ -986,7 +988,7 @@ fn reduce(
                 }
                 let len_r = m.rows[r].len();
                 if len_r >= len_q && (len_r > len_q || q < r) {
-                    work.add((len_q + len_r) as u64);
+                    work.add_pass((len_q + len_r) as u64);
                     if subset_live(&m.rows[q], &m.rows[r], |_| true) {
                         row_live[r] = false;
                         changed = true;
@@ -1001,9 +1003,9 @@ fn reduce(
             .iter()
             .map(|rs| rs.iter().filter(|&&r| row_live[r as usize]).count())
             .collect();
-        work.add(m.rows.entries.len() as u64);
+        work.add_pass(m.rows.entries.len() as u64);
         for a in 0..cols {
-            if work.over() || (a % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
+            if work.passes_over() || (a % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
                 return Some(m.restrict(&row_live, &col_live));
             }
             let Some(&first) = col_rows[a].iter().find(|&&r| row_live[r as usize]) else {
@@ -1012,7 +1014,7 @@ fn reduce(
                 continue;
             };
             let candidates = &m.rows[first as usize];
-            work.add(candidates.len() as u64);
+            work.add_pass(candidates.len() as u64);
             let dominated = candidates.iter().any(|&b| {
                 let b = b as usize;
                 if b == a || !col_live[b] {
@@ -1024,7 +1026,7 @@ fn reduce(
                 if !(better && nb >= na) {
                     return false;
                 }
-                work.add((col_rows[a].len() + col_rows[b].len()) as u64);
+                work.add_pass((col_rows[a].len() + col_rows[b].len()) as u64);
                 subset_live(&col_rows[a], &col_rows[b], |r| row_live[r as usize])
             });
             if dominated {
@@ -1035,7 +1037,7 @@ fn reduce(
         if !changed {
             return Some(m);
         }
-        work.add(m.rows.entries.len() as u64);
+        work.add_pass(m.rows.entries.len() as u64);
         m = m.restrict(&row_live, &col_live);
     }
 }
@@ -1044,19 +1046,39 @@ fn reduce(
 /// [`swap_down`].
 const REDUCE_POLL: usize = 1024;
 
+/// The reductions and exchanges may do this many times the search's work
+/// budget, on a meter of their own.
+const PASSES_SHARE: u64 = 4;
+
+/// The floor of subgradient steps that gives every component a bound runs
+/// on to this many times the work budget, and no further.
+const HARD_SHARE: u64 = 4;
+
 /// Work of the cover search against [`Budget::max_work`], in covering-matrix
-/// entries visited. Past the budget, the optional steps (dominance,
-/// exchanges, more subgradient steps, branching) are skipped; the few that
-/// give every component a bound and a cover run on to twice the budget, so
-/// the search as a whole never runs much past that, whatever the matrix.
+/// entries visited. Past the budget, more subgradient steps and branching
+/// are skipped; the few that give every component a bound and a cover run
+/// on to [`HARD_SHARE`] times the budget. The reductions and exchanges,
+/// which the search needs at full strength on usual matrices (counted with
+/// the rest, they halved the quality of the bounds on random 16-input
+/// functions) but which cost more than everything else on a matrix of
+/// millions of entries, have a meter of their own. So the search as a whole
+/// never runs past a few times its budget, whatever the matrix.
 struct Work {
     spent: u64,
     limit: u64,
+    /// The reductions' and exchanges' own work, against their own limit.
+    passes: u64,
+    passes_limit: u64,
 }
 
 impl Work {
     fn new(limit: u64) -> Work {
-        Work { spent: 0, limit }
+        Work {
+            spent: 0,
+            limit,
+            passes: 0,
+            passes_limit: limit.saturating_mul(PASSES_SHARE),
+        }
     }
 
     fn add(&mut self, entries: u64) {
@@ -1067,14 +1089,24 @@ impl Work {
         self.spent > self.limit
     }
 
+    fn add_pass(&mut self, entries: u64) {
+        self.passes = self.passes.saturating_add(entries);
+    }
+
+    fn passes_over(&self) -> bool {
+        self.passes > self.passes_limit
+    }
+
     /// What is left of the budget.
     fn left(&self) -> u64 {
         self.limit.saturating_sub(self.spent)
     }
 
-    /// What is left before the hard limit, twice the budget.
+    /// What is left before the hard limit, [`HARD_SHARE`] times the budget.
     fn hard_left(&self) -> u64 {
-        self.limit.saturating_mul(2).saturating_sub(self.spent)
+        self.limit
+            .saturating_mul(HARD_SHARE)
+            .saturating_sub(self.spent)
     }
 }
 
@@ -1281,7 +1313,7 @@ impl Solver<'_> {
     /// affords (at `PRIMAL_PASSES` passes over `entries` each), but at least
     /// `MIN_STEPS` while the hard limit affords them, so that every
     /// component gets a bound and a cover without the search running past
-    /// twice its budget.
+    /// the hard limit.
     fn affordable(&self, effort: Effort, entries: usize, share: u64) -> Effort {
         let per_step = PRIMAL_PASSES * entries.max(1) as u64;
         let steps = (self.work.left() / share / per_step) as usize;
@@ -1372,10 +1404,10 @@ impl Solver<'_> {
         let depth = path.len();
         loop {
             self.nodes += 1;
-            // The node's components, column lists and children visit the
-            // matrix about this often (the reduction and the bound's steps
-            // are counted as they are taken).
-            self.work.add(m.rows.entries.len() as u64 * 3);
+            // Reduction visits the matrix about this often (the bound's
+            // steps are counted as they are taken; the reduction's own
+            // passes, on their own meter, bound its worst case).
+            self.work.add(m.rows.entries.len() as u64 * 8);
             if self.nodes > self.max_nodes || self.work.over() || self.stopped() {
                 self.exhausted = true;
                 break;
@@ -1624,20 +1656,20 @@ fn swap_down(
         let mut changed = false;
         for d in 0..cols {
             // Stopped or out of budget: the cover so far is a cover.
-            if work.over() || (d % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
+            if work.passes_over() || (d % REDUCE_POLL == REDUCE_POLL - 1 && stop()) {
                 break 'passes;
             }
             if chosen[d] {
                 continue;
             }
             let mut candidates = Vec::new();
-            work.add(col_rows[d].len() as u64);
+            work.add_pass(col_rows[d].len() as u64);
             for &r in &col_rows[d] {
                 in_d[r as usize] = d;
                 if times[r as usize] != 1 {
                     continue;
                 }
-                work.add(m.rows[r as usize].len() as u64);
+                work.add_pass(m.rows[r as usize].len() as u64);
                 for &c in &m.rows[r as usize] {
                     let c = c as usize;
                     if chosen[c] {
@@ -1653,7 +1685,7 @@ fn swap_down(
             let replaced: Vec<usize> = candidates
                 .into_iter()
                 .filter(|&c| {
-                    work.add(col_rows[c].len() as u64);
+                    work.add_pass(col_rows[c].len() as u64);
                     let alone = col_rows[c]
                         .iter()
                         .filter(|&&r| times[r as usize] == 1)
