@@ -13,7 +13,7 @@ fn main() {
     // How often the default budget proves the result minimal (slow: set
     // IMPLICA_BENCH_SUMMARY=1 to print it).
     let summary = std::env::var_os("IMPLICA_BENCH_SUMMARY").is_some();
-    for vars in [8usize, 10, 12].into_iter().filter(|_| summary) {
+    for vars in [8usize, 10, 12, 14, 16].into_iter().filter(|_| summary) {
         let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
         let (mut proven, mut terms, mut bound) = (0, 0, 0);
         for (on, dc) in &functions {
@@ -103,7 +103,7 @@ fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable, Tr
         .collect()
 }
 
-#[divan::bench(args = [8, 10, 12], sample_count = 10)]
+#[divan::bench(args = [8, 10, 12, 14, 16], sample_count = 10)]
 fn random_with_dont_cares(bencher: Bencher, vars: usize) {
     let functions = random_functions(vars, 30, 0x9E37_79B9_7F4A_7C15 ^ vars as u64);
     let mut i = 0;
