@@ -58,14 +58,22 @@ pub enum Redundancy {
     /// The term lies inside the don't-cares: it is 1 only where the value
     /// is free.
     DontCaresOnly,
-    /// The same term as term `of` (the first other copy).
-    Duplicate { of: usize },
-    /// Term `by`, a different term, contains it (absorption, `x | x & y`).
-    Absorbed { by: usize },
+    /// The same term as another.
+    Duplicate {
+        /// The index of the first other copy.
+        of: usize,
+    },
+    /// A different term contains it (absorption, `x | x & y`).
+    Absorbed {
+        /// The index of the first term that contains it.
+        by: usize,
+    },
     /// No one term contains it, but the others together cover it (such as
-    /// a consensus term); `with_dont_cares` when they do only thanks to the
-    /// don't-cares.
-    Covered { with_dont_cares: bool },
+    /// a consensus term).
+    Covered {
+        /// Whether they do only thanks to the don't-cares.
+        with_dont_cares: bool,
+    },
 }
 
 /// The terms [`redundant_terms`] finds, each with the reason, the most

@@ -8,7 +8,9 @@ use crate::TruthTable;
 /// `x` has only `one`, `!x` only `zero`.
 #[derive(Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub struct Cube {
+    /// Bit `i`: variable `i` may be 0.
     pub zero: u64,
+    /// Bit `i`: variable `i` may be 1.
     pub one: u64,
 }
 
@@ -117,7 +119,9 @@ impl Cube {
 /// A sum of products over `vars` variables.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Cover {
+    /// The number of variables (at most 64).
     pub vars: usize,
+    /// The product terms, in no particular order.
     pub cubes: Vec<Cube>,
 }
 

@@ -23,8 +23,11 @@ use crate::{Cover, TruthTable};
 /// any number of operands).
 #[derive(Debug, Clone, PartialEq, Eq, Hash)]
 pub enum BoolExpr {
+    /// A constant.
     Const(bool),
+    /// Variable `i`.
     Var(usize),
+    /// The negation of the operand.
     Not(Box<BoolExpr>),
     /// The conjunction of the operands (1 when there are none).
     And(Vec<BoolExpr>),

@@ -75,6 +75,7 @@ impl GateKind {
 /// What a gate input or the network output reads.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub enum Signal {
+    /// A constant input.
     Const(bool),
     /// Primary input `i` (variable `i`).
     Input(usize),
@@ -85,7 +86,9 @@ pub enum Signal {
 /// One gate: its kind and what its inputs read.
 #[derive(Clone, Debug, PartialEq, Eq, Hash)]
 pub struct Gate {
+    /// NAND or NOR.
     pub kind: GateKind,
+    /// What each input reads (one input: an inverter).
     pub inputs: Vec<Signal>,
 }
 
@@ -104,14 +107,30 @@ pub struct GateNetwork {
 pub enum GateError {
     /// Gate `gate` (`None`: the output) reads a primary input beyond the
     /// network's inputs, or itself or a later gate.
-    BadSignal { gate: Option<usize>, signal: Signal },
+    BadSignal {
+        /// The gate, or `None` for the output.
+        gate: Option<usize>,
+        /// What it reads.
+        signal: Signal,
+    },
     /// Gate `gate` has no input.
-    NoInputs { gate: usize },
+    NoInputs {
+        /// The gate.
+        gate: usize,
+    },
     /// A truth table was asked over `vars` variables: fewer than the
     /// network's `inputs`, or more than [`MAX_VARS`].
-    Vars { vars: usize, inputs: usize },
+    Vars {
+        /// The variables asked for.
+        vars: usize,
+        /// The network's inputs.
+        inputs: usize,
+    },
     /// The expression would have more than `limit` nodes.
-    TooLarge { limit: usize },
+    TooLarge {
+        /// The most nodes allowed.
+        limit: usize,
+    },
 }
 
 impl std::fmt::Display for GateError {

@@ -16,6 +16,8 @@
 //! works on variables numbered `0..n`, variable 0 being the most significant
 //! bit of a minterm index.
 
+#![warn(missing_docs)]
+
 mod analysis;
 mod bdd;
 mod cube;

@@ -97,8 +97,11 @@ pub enum Format {
 /// A named function: 1 on `on`, free on `dc` (a don't-care wins over `on`).
 #[derive(Clone, Copy, Debug)]
 pub struct Function<'a> {
+    /// The name shown in headers and titles.
     pub name: &'a str,
+    /// Where the function is 1.
     pub on: &'a TruthTable,
+    /// Where it is free, if anywhere.
     pub dc: Option<&'a TruthTable>,
 }
 
@@ -133,18 +136,32 @@ pub enum RenderError {
     /// `names` input names were given for `function`, whose on-set or
     /// don't-care set has `vars` inputs.
     InputCount {
+        /// The function's name.
         function: String,
+        /// The input names given.
         names: usize,
+        /// The function's inputs.
         vars: usize,
     },
     /// More than [`MAX_VARS`] inputs for a truth table.
-    TooManyInputs { names: usize },
+    TooManyInputs {
+        /// The input names given.
+        names: usize,
+    },
     /// A truth table with no column at all.
     Empty,
     /// A map has 1 to 6 variables.
-    MapVars { vars: usize },
+    MapVars {
+        /// The variables asked for.
+        vars: usize,
+    },
     /// The cover is over `cover` variables, the function over `vars`.
-    CoverVars { cover: usize, vars: usize },
+    CoverVars {
+        /// The cover's variables.
+        cover: usize,
+        /// The function's variables.
+        vars: usize,
+    },
 }
 
 impl std::fmt::Display for RenderError {
