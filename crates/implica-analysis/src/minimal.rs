@@ -46,10 +46,27 @@ pub struct Form {
     pub method: Method,
 }
 
-/// Why no form was found.
-#[derive(Debug, Clone, PartialEq, Eq)]
+/// Why no form was found, with what is known of the function.
+#[derive(Debug, Clone, PartialEq)]
 pub struct NoForm {
     pub reason: String,
+    /// The input combinations the form would have to cover (where the
+    /// signal is 1 for a sum of products, 0 for a product of sums), when
+    /// known.
+    pub rows: Option<f64>,
+    /// Fewest terms any such form needs, when known (rows with no
+    /// neighbour in the function or its don't-cares).
+    pub lower_bound: Option<f64>,
+}
+
+impl NoForm {
+    fn because(reason: String) -> NoForm {
+        NoForm {
+            reason,
+            rows: None,
+            lower_bound: None,
+        }
+    }
 }
 
 /// The minimal forms of one signal.
@@ -133,11 +150,9 @@ fn form(
         }
     }
     if k > MAX_COVER_INPUTS {
-        return Ok(Err(NoForm {
-            reason: format!(
-                "it reads {k} inputs; two-level forms are found for at most {MAX_COVER_INPUTS}"
-            ),
-        }));
+        return Ok(Err(NoForm::because(format!(
+            "it reads {k} inputs; two-level forms are found for at most {MAX_COVER_INPUTS}"
+        ))));
     }
     // Past the exact limit: start the heuristic from the BDD's paths.
     let target = if product_of_sums {
@@ -155,7 +170,8 @@ fn form(
         // sums the off-set; either way, what is known is its size and a
         // bound on the terms.
         let size = f.bdd.fraction_ones(target) * 2f64.powi(k as i32);
-        let bound = match isolated(f, target, local, effort)? {
+        let known = isolated(f, target, local, effort)?;
+        let bound = match known {
             Some(n) => format!("; at least {n:.0} terms are needed"),
             None => String::new(),
         };
@@ -171,6 +187,8 @@ fn form(
                  combinations; its function has more than {MAX_START_CUBES} disjoint terms, \
                  past what the heuristic starts from{bound}"
             ),
+            rows: Some(size),
+            lower_bound: known,
         }));
     };
     let h = minimize_heuristic(&start, &dc, effort)?;
@@ -263,10 +281,9 @@ fn check_exact(
     let e = expression(&m.cover, product_of_sums);
     let t = e.truth_table(on.vars());
     if !t.and_not(dc).eq(&on.and_not(dc)) {
-        return Err(NoForm {
-            reason: "internal error: the minimized form did not check out; please report this"
-                .to_string(),
-        });
+        return Err(NoForm::because(
+            "internal error: the minimized form did not check out; please report this".to_string(),
+        ));
     }
     Ok(Form {
         expression: e,

@@ -102,10 +102,29 @@ fn report(
                         "method": f.method.as_str(),
                     });
                 }
-                Err(NoForm { reason }) => {
+                Err(NoForm {
+                    reason,
+                    rows,
+                    lower_bound,
+                }) => {
                     failed = true;
                     text.push_str(&format!("  {label}  not found: {reason}\n"));
                     entry[key] = json!({"error": reason});
+                    // Whole numbers print as integers (the counts are exact
+                    // up to 2^53).
+                    let count = |x: f64| {
+                        if x.fract() == 0.0 && x < 9_007_199_254_740_992.0 {
+                            json!(x as u64)
+                        } else {
+                            json!(x)
+                        }
+                    };
+                    if let Some(rows) = rows {
+                        entry[key]["rows"] = count(*rows);
+                    }
+                    if let Some(bound) = lower_bound {
+                        entry[key]["lower_bound"] = count(*bound);
+                    }
                 }
             }
         }

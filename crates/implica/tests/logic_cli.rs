@@ -293,6 +293,12 @@ fn twenty_four_input_parity_is_too_large_and_says_what_is_known() {
         why.contains("24 inputs") && why.contains("8388608"),
         "{why}"
     );
+    // The same figures as numbers: 2^23 rows at 1 (and at 0), each with
+    // only neighbours of the other value, so each a term of its own.
+    for form in ["sop", "pos"] {
+        assert_eq!(p[form]["rows"], 8_388_608, "{form}");
+        assert_eq!(p[form]["lower_bound"], 8_388_608, "{form}");
+    }
 }
 
 #[test]
