@@ -29,7 +29,10 @@ fuzz_target!(|data: &[u8]| {
     for version in [&text[..at], &text[..], &text[at..]] {
         let s = session.analyze(version, &config);
         let fresh = implica_analysis::analyze_with(version, &config);
-        assert_eq!(s.diagnostics, fresh.diagnostics, "session differs on {version:?}");
+        assert_eq!(
+            s.diagnostics, fresh.diagnostics,
+            "session differs on {version:?}"
+        );
         assert_eq!(s.internal_errors, fresh.internal_errors);
     }
     let r = implica_analysis::refactors::refactors_at(

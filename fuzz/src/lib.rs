@@ -1,10 +1,14 @@
-//! The fuzz targets' input builders. The properties they check live in
-//! `implica_syntax::invariants`, shared with the regression tests.
+//! The fuzz targets' input builders. The properties the syntax targets
+//! check live in `implica_syntax::invariants`, shared with the regression
+//! tests; those of the `logic` target in [`logic`].
+
+pub mod logic;
 
 pub use implica_syntax::invariants::{check_bytes, check_text};
 
 /// The pieces that [`tokens_to_text`] maps input bytes to: names, keywords,
 /// punctuation, numbers and trivia of the language.
+#[rustfmt::skip]
 pub const ALPHABET: &[&str] = &[
     // names
     "a", "b", "c", "sig_1",
