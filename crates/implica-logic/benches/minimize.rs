@@ -2,9 +2,11 @@
 //! `cargo bench -p implica-logic --bench minimize`; figures go in
 //! docs/benchmarks.md.
 
+#[path = "../tests/common/mod.rs"]
+mod common;
+use common::random_functions;
 use divan::Bencher;
 use implica_logic::{Budget, TruthTable, minimize_multi, minimize_sop};
-use implica_testkit::Rng;
 
 #[global_allocator]
 static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
@@ -82,25 +84,6 @@ fn kiosk_digits() -> Vec<(TruthTable, TruthTable)> {
 fn multi_output_kiosk_display(bencher: Bencher) {
     let outputs = kiosk_digits();
     bencher.bench_local(|| minimize_multi(&outputs, &Budget::default()));
-}
-
-/// Random functions: each minterm on with probability 3/8, a don't-care with
-/// probability 1/4, off otherwise.
-fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable, TruthTable)> {
-    let mut rng = Rng(seed);
-    (0..count)
-        .map(|_| {
-            let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
-            for m in 0..(1usize << vars) {
-                match rng.next() % 8 {
-                    0..=2 => on.set(m, true),
-                    3 | 4 => dc.set(m, true),
-                    _ => {}
-                }
-            }
-            (on, dc)
-        })
-        .collect()
 }
 
 #[divan::bench(args = [8, 10, 12, 14, 16], sample_count = 10)]

@@ -5,9 +5,9 @@
 
 #[path = "../tests/common/mod.rs"]
 mod common;
-use common::random_cover;
+use common::{random_cover, random_functions};
 use divan::Bencher;
-use implica_logic::{Bdd, BoolExpr, Cover, Effort, TruthTable, minimize_heuristic};
+use implica_logic::{Bdd, BoolExpr, Cover, Cube, Effort, TruthTable, minimize_heuristic};
 use implica_testkit::Rng;
 
 #[global_allocator]
@@ -28,6 +28,20 @@ fn main() {
                 r.complete,
                 e.used()
             );
+        }
+        for &vars in MINTERM_CASES {
+            for (i, (on, dc)) in minterm_starts(vars).iter().enumerate() {
+                let mut e = Effort::new(BUDGET);
+                let r = minimize_heuristic(on, dc, &mut e).expect("not cancelled");
+                println!(
+                    "{vars} inputs from {} minterms (function {i}): {} terms, {} literals, complete: {}, work {}",
+                    on.len(),
+                    r.cover.len(),
+                    r.cover.literals(),
+                    r.complete,
+                    e.used()
+                );
+            }
         }
     }
     divan::main();
@@ -87,4 +101,32 @@ fn heuristic(bencher: Bencher, case: (usize, usize)) {
     let on = random_cover(&mut Rng(SEED ^ vars as u64 ^ terms as u64), vars, terms, 10);
     let dc = Cover::zero(vars);
     bencher.bench_local(|| minimize_heuristic(&on, &dc, &mut Effort::new(BUDGET)));
+}
+
+const MINTERM_CASES: &[usize] = &[12, 14];
+
+/// The first two random functions of the exact minimizer's benchmark
+/// (`random_with_dont_cares` in benches/minimize.rs), as covers of their
+/// required minterms and of their don't-care minterms: the heuristic's
+/// hardest start, one cube per row.
+fn minterm_starts(vars: usize) -> Vec<(Cover, Cover)> {
+    let minterms = |t: &TruthTable| Cover {
+        vars,
+        cubes: t
+            .minterms()
+            .into_iter()
+            .map(|m| Cube::minterm(vars, m))
+            .collect(),
+    };
+    random_functions(vars, 2, 0x9E37_79B9_7F4A_7C15 ^ vars as u64)
+        .iter()
+        .map(|(on, dc)| (minterms(&on.and_not(dc)), minterms(dc)))
+        .collect()
+}
+
+#[divan::bench(args = MINTERM_CASES, sample_count = 3)]
+fn heuristic_from_minterms(bencher: Bencher, vars: usize) {
+    let starts = minterm_starts(vars);
+    let (on, dc) = &starts[0];
+    bencher.bench_local(|| minimize_heuristic(on, dc, &mut Effort::new(BUDGET)));
 }

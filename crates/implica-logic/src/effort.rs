@@ -13,6 +13,7 @@
 /// use implica_logic::{Effort, Interrupted};
 /// let mut effort = Effort::new(10);
 /// assert_eq!(effort.spend(20), Err(Interrupted::OutOfBudget));
+/// assert_eq!(effort.used(), 10); // used up, not overdrawn
 ///
 /// let stop = || true;
 /// let mut effort = Effort::unlimited().with_cancel(&stop);
@@ -98,9 +99,13 @@ impl<'a> Effort<'a> {
     }
 
     /// Spends `units`, failing when the budget is gone or the caller cancelled.
+    /// A spend the budget refuses leaves it used up, not overdrawn: the work
+    /// it was for is not done, and a part charged back to its parent then
+    /// never costs the parent more than the part was given.
     pub fn spend(&mut self, units: u64) -> Result<(), Interrupted> {
         self.used = self.used.saturating_add(units);
         if self.used > self.limit {
+            self.used = self.limit;
             return Err(Interrupted::OutOfBudget);
         }
         if self.used >= self.next_poll {

@@ -8,7 +8,7 @@
 //! input under the don't-cares by cube containment before it is returned;
 //! when that check cannot finish, the input comes back unchanged.
 
-use crate::urp::{mask, polarities, split_variable};
+use crate::urp::{mask, polarities, split_variable, zero_point};
 use crate::{Cover, Cube, Effort, Interrupted};
 
 /// The outcome of [`minimize_heuristic`].
@@ -35,7 +35,9 @@ fn cost(cover: &Cover) -> (usize, usize) {
 /// Three quarters of the budget go to the loop and the rest is kept for
 /// the final equivalence check. Cancellation is an error; running out of
 /// budget is not: the best verified cover so far comes back, marked
-/// incomplete.
+/// incomplete, and a pass the budget stops part-way counts (the cubes it
+/// reached are improved, the others kept as they were), so even a budget
+/// too small for one whole pass can give a smaller cover.
 ///
 /// ```
 /// use implica_logic::{Cover, Cube, Effort, minimize_heuristic};
@@ -110,8 +112,23 @@ pub fn minimize_heuristic(
 /// otherwise the best cover, whether the loop converged, and its passes.
 type Found = (Option<Cover>, bool, usize);
 
+/// A pass's cover, and whether the pass ran to its end. A pass the budget
+/// stops part-way still gives a cover of the same function: each of its
+/// steps keeps the function, and the cubes it did not reach stay as they
+/// were.
+type Pass = Result<(Cover, bool), Interrupted>;
+
+/// A step's value, or `Ok(None)` when the budget ran out; cancellation
+/// stays an error.
+fn finished<T>(step: Result<T, Interrupted>) -> Result<Option<T>, Interrupted> {
+    match step {
+        Ok(v) => Ok(Some(v)),
+        Err(Interrupted::OutOfBudget) => Ok(None),
+        Err(e) => Err(e),
+    }
+}
+
 fn improve(on: &Cover, dc: &Cover, effort: &mut Effort) -> Result<Found, Interrupted> {
-    let vars = on.vars;
     let mut f = on.clone();
     f.remove_contained();
     let care = f.union(dc);
@@ -129,42 +146,42 @@ fn improve(on: &Cover, dc: &Cover, effort: &mut Effort) -> Result<Found, Interru
         Some(r) => Limit::Offset(r),
         None => Limit::Care(&care),
     };
+    // Each pass is reduce (skipped the first time), expand, irredundant;
+    // a pass cut short by the budget ends the loop with what it made.
     let mut best: Option<Cover> = None;
-    let mut passes = 0;
     let mut current = f;
-    let first = (|| -> Result<Cover, Interrupted> {
-        let g = expand(&current, &limit, effort)?;
-        irredundant(&g, dc, effort)
-    })();
-    match first {
-        Ok(g) => current = g,
-        Err(Interrupted::OutOfBudget) => return Ok((None, false, 0)),
-        Err(e) => return Err(e),
-    }
-    if cost(&current) < cost(on) {
-        best = Some(current.clone());
-    }
+    let mut passes = 0;
     loop {
-        passes += 1;
-        let step = (|| -> Result<Cover, Interrupted> {
-            let g = reduce(&current, dc, effort)?;
-            let g = expand(&g, &limit, effort)?;
-            irredundant(&g, dc, effort)
-        })();
-        let next = match step {
-            Ok(g) => g,
-            Err(Interrupted::OutOfBudget) => return Ok((best, false, passes)),
-            Err(e) => return Err(e),
+        let (g, done) = if passes == 0 {
+            (current.clone(), true)
+        } else {
+            reduce(&current, dc, effort)?
         };
-        if cost(&next) < cost(&current) {
-            current = next;
+        let (g, done) = if done {
+            expand(&g, &limit, effort)?
+        } else {
+            (g, false)
+        };
+        let (g, done) = if done {
+            irredundant(&g, dc, effort)?
+        } else {
+            (g, false)
+        };
+        // The first pass only grows and drops cubes, so it never costs more.
+        let gained = cost(&g) < cost(&current);
+        if gained || passes == 0 {
+            current = g;
             if cost(&current) < cost(on) {
                 best = Some(current.clone());
             }
-        } else {
-            debug_assert_eq!(current.vars, vars);
+        }
+        if !done {
+            return Ok((best, false, passes));
+        }
+        if !gained && passes > 0 {
             return Ok((best, true, passes));
         }
+        passes += 1;
     }
 }
 
@@ -187,9 +204,8 @@ const CARE_TARGETS: usize = 12;
 /// Each cube of `f` made prime (no literal can be dropped without leaving
 /// `on | dc`), preferring growth that swallows other cubes; swallowed cubes
 /// are dropped.
-fn expand(f: &Cover, limit: &Limit, effort: &mut Effort) -> Result<Cover, Interrupted> {
+fn expand(f: &Cover, limit: &Limit, effort: &mut Effort) -> Pass {
     let vars = f.vars;
-    let m = mask(vars);
     let mut order: Vec<Cube> = f.cubes.clone();
     // Small cubes are the most likely to be swallowed, so expand big ones first.
     order.sort_by_key(|c| c.literals(vars));
@@ -199,65 +215,13 @@ fn expand(f: &Cover, limit: &Limit, effort: &mut Effort) -> Result<Cover, Interr
         if covered[k] {
             continue;
         }
-        let c = order[k];
-        let grow = |freed: u64| Cube {
-            zero: c.zero | freed,
-            one: c.one | freed,
-        };
-        // For each off-set cube, the variables where it and `c` disagree:
-        // `c` grown over variables S stays off it while S misses one of them.
-        let blocking: Vec<u64> = match limit {
-            Limit::Offset(r) => r
-                .cubes
-                .iter()
-                .map(|r| !((c.zero & r.zero) | (c.one & r.one)) & m)
-                .collect(),
-            Limit::Care(_) => Vec::new(),
-        };
-        effort.spend(1 + blocking.len() as u64 / 8)?;
-        let feasible = |freed: u64, effort: &mut Effort| -> Result<bool, Interrupted> {
-            match limit {
-                Limit::Offset(_) => {
-                    effort.spend(1 + blocking.len() as u64 / 64)?;
-                    Ok(blocking.iter().all(|b| b & !freed != 0))
-                }
-                Limit::Care(care) => care.contains_cube(&grow(freed), effort),
+        let prime = match finished(expand_cube(k, &order, &covered, vars, limit, effort))? {
+            Some(prime) => prime,
+            None => {
+                out.extend((k..order.len()).filter(|&j| !covered[j]).map(|j| order[j]));
+                return Ok((Cover { vars, cubes: out }, false));
             }
         };
-        let lits = literal_vars(&c, m);
-        let mut freed = 0u64;
-        // First grow towards the other cubes, nearest first.
-        let mut targets: Vec<(u32, usize, u64)> = (0..order.len())
-            .filter(|&j| j != k && !covered[j])
-            .map(|j| {
-                let d = order[j];
-                let same =
-                    (c.zero & !c.one & d.zero & !d.one) | (c.one & !c.zero & d.one & !d.zero);
-                let need = lits & !same;
-                (need.count_ones(), j, need)
-            })
-            .collect();
-        targets.sort_unstable();
-        if let Limit::Care(_) = limit {
-            targets.truncate(CARE_TARGETS);
-        }
-        for &(_, _, need) in &targets {
-            let grown = freed | need;
-            if grown != freed && feasible(grown, effort)? {
-                freed = grown;
-            }
-        }
-        // Then drop every literal that can still go.
-        let mut rest = lits & !freed;
-        while rest != 0 {
-            let v = rest.trailing_zeros();
-            rest &= rest - 1;
-            let grown = freed | 1 << v;
-            if feasible(grown, effort)? {
-                freed = grown;
-            }
-        }
-        let prime = grow(freed);
         for j in 0..order.len() {
             if !covered[j] && prime.contains(&order[j]) {
                 covered[j] = true;
@@ -265,72 +229,212 @@ fn expand(f: &Cover, limit: &Limit, effort: &mut Effort) -> Result<Cover, Interr
         }
         out.push(prime);
     }
-    Ok(Cover { vars, cubes: out })
+    Ok((Cover { vars, cubes: out }, true))
+}
+
+/// Cube `order[k]` grown to a prime: first towards the other uncovered
+/// cubes, nearest first, then by every literal that can still go.
+///
+/// Against the off-set, each off-set cube gives a blocking row: the
+/// variables where it and the cube disagree, one of which must keep its
+/// literal. A row left with one variable makes that literal required for
+/// good, and a row holding a required literal is met for good, so both
+/// leave the rows checked; a target that needs a required literal is
+/// refused without a check. The primes are those of checking every row
+/// every time, found in time that shrinks with the rows.
+fn expand_cube(
+    k: usize,
+    order: &[Cube],
+    covered: &[bool],
+    vars: usize,
+    limit: &Limit,
+    effort: &mut Effort,
+) -> Result<Cube, Interrupted> {
+    let m = mask(vars);
+    let c = order[k];
+    let lits = literal_vars(&c, m);
+    let grow = |freed: u64| Cube {
+        zero: c.zero | freed,
+        one: c.one | freed,
+    };
+    let offset_len = match limit {
+        Limit::Offset(r) => r.len(),
+        Limit::Care(_) => 0,
+    };
+    effort.spend(1 + (order.len() + offset_len) as u64 / 8)?;
+    // Required literals, and the rows not yet met for good.
+    let mut required = 0u64;
+    let mut rows: Vec<u64> = Vec::new();
+    let settle = |rows: &mut Vec<u64>, required: &mut u64, freed: u64| {
+        rows.retain_mut(|b| {
+            *b &= !freed;
+            if *b & *required != 0 {
+                false
+            } else if b.count_ones() == 1 {
+                *required |= *b;
+                false
+            } else {
+                true
+            }
+        });
+    };
+    if let Limit::Offset(r) = limit {
+        rows = r
+            .cubes
+            .iter()
+            .map(|r| !((c.zero & r.zero) | (c.one & r.one)) & m)
+            .collect();
+        if rows.contains(&0) {
+            // The cube meets the off-set (never for a cover inside the
+            // care set): it cannot grow.
+            debug_assert!(false, "a cube of the cover meets the off-set");
+            return Ok(c);
+        }
+        settle(&mut rows, &mut required, 0);
+    }
+    let feasible = |grown: u64, rows: &[u64], effort: &mut Effort| -> Result<bool, Interrupted> {
+        match limit {
+            Limit::Offset(_) => {
+                effort.spend(1 + rows.len() as u64 / 64)?;
+                Ok(rows.iter().all(|b| b & !grown != 0))
+            }
+            Limit::Care(care) => care.contains_cube(&grow(grown), effort),
+        }
+    };
+    // The other cubes as targets, by how many literals reaching each frees
+    // (a counting sort keeps equal distances in cube order).
+    let mut by_distance = [0usize; 66];
+    let mut needs: Vec<(u32, u64)> = Vec::new();
+    for (j, d) in order.iter().enumerate() {
+        if j == k || covered[j] {
+            continue;
+        }
+        let same = (c.zero & !c.one & d.zero & !d.one) | (c.one & !c.zero & d.one & !d.zero);
+        let need = lits & !same;
+        if need != 0 && need & required == 0 {
+            let distance = need.count_ones();
+            by_distance[distance as usize + 1] += 1;
+            needs.push((distance, need));
+        }
+    }
+    for i in 1..by_distance.len() {
+        by_distance[i] += by_distance[i - 1];
+    }
+    let mut targets = vec![0u64; needs.len()];
+    for &(distance, need) in &needs {
+        let slot = &mut by_distance[distance as usize];
+        targets[*slot] = need;
+        *slot += 1;
+    }
+    if let Limit::Care(_) = limit {
+        targets.truncate(CARE_TARGETS);
+    }
+    let mut freed = 0u64;
+    for need in targets {
+        let grown = freed | need;
+        if grown != freed && need & required == 0 && feasible(grown, &rows, effort)? {
+            freed = grown;
+            settle(&mut rows, &mut required, freed);
+        }
+    }
+    // Then drop every literal that can still go.
+    let mut rest = lits & !freed & !required;
+    while rest != 0 {
+        let v = rest.trailing_zeros();
+        rest &= rest - 1;
+        let grown = freed | 1 << v;
+        if grown & required == 0 && feasible(grown, &rows, effort)? {
+            freed = grown;
+            settle(&mut rows, &mut required, freed);
+        }
+    }
+    Ok(grow(freed))
 }
 
 /// Drops cubes the others and the don't-cares cover, smallest cubes first,
-/// until none is left to drop.
-fn irredundant(f: &Cover, dc: &Cover, effort: &mut Effort) -> Result<Cover, Interrupted> {
+/// until none is left to drop (or the budget ends it: the cubes not yet
+/// looked at stay).
+fn irredundant(f: &Cover, dc: &Cover, effort: &mut Effort) -> Pass {
     let vars = f.vars;
     let mut cubes = f.cubes.clone();
     cubes.sort_by_key(|c| std::cmp::Reverse(c.literals(vars)));
     let mut keep = vec![true; cubes.len()];
+    let redundant = |i: usize, keep: &[bool], effort: &mut Effort| {
+        let c = cubes[i];
+        if c.is_empty(vars) {
+            return Ok(true);
+        }
+        effort.spend(1 + (cubes.len() + dc.len()) as u64 / 8)?;
+        // The others and the don't-cares, cofactored by the cube: a
+        // tautology when they cover it.
+        let rest: Vec<Cube> = cubes
+            .iter()
+            .zip(keep)
+            .enumerate()
+            .filter(|&(j, (_, &k))| j != i && k)
+            .map(|(_, (d, _))| d)
+            .chain(&dc.cubes)
+            .filter_map(|d| d.cofactor(&c, vars))
+            .collect();
+        Ok(zero_point(&rest, vars, effort)?.is_none())
+    };
+    let mut done = true;
     for i in 0..cubes.len() {
-        let others = Cover {
-            vars,
-            cubes: cubes
-                .iter()
-                .enumerate()
-                .filter(|&(j, _)| j != i && keep[j])
-                .map(|(_, c)| *c)
-                .chain(dc.cubes.iter().copied())
-                .collect(),
-        };
-        if others.contains_cube(&cubes[i], effort)? {
-            keep[i] = false;
+        match finished(redundant(i, &keep, effort))? {
+            Some(r) => keep[i] = !r,
+            None => {
+                done = false;
+                break;
+            }
         }
     }
-    Ok(Cover {
-        vars,
-        cubes: cubes
-            .into_iter()
-            .zip(keep)
-            .filter_map(|(c, k)| k.then_some(c))
-            .collect(),
-    })
+    let cubes = cubes
+        .iter()
+        .zip(keep)
+        .filter_map(|(c, k)| k.then_some(*c))
+        .collect();
+    Ok((Cover { vars, cubes }, done))
 }
 
 /// Each cube shrunk, in turn, to the smallest cube holding what only it
-/// covers, so that the next expand can grow it in another direction.
-fn reduce(f: &Cover, dc: &Cover, effort: &mut Effort) -> Result<Cover, Interrupted> {
+/// covers, so that the next expand can grow it in another direction (or
+/// until the budget ends it: the cubes not yet reached stay as they are).
+fn reduce(f: &Cover, dc: &Cover, effort: &mut Effort) -> Pass {
     let vars = f.vars;
     let mut cubes = f.cubes.clone();
     // The largest cube first: it has the most to give up.
     cubes.sort_by_key(|c| c.literals(vars));
     let mut alive = vec![true; cubes.len()];
+    let mut done = true;
     for i in 0..cubes.len() {
         let c = cubes[i];
-        let others: Vec<Cube> = cubes
-            .iter()
-            .enumerate()
-            .filter(|&(j, _)| j != i && alive[j])
-            .map(|(_, d)| *d)
-            .chain(dc.cubes.iter().copied())
-            .filter_map(|d| d.cofactor(&c, vars))
-            .collect();
-        match supercube_of_complement(&others, vars, effort)? {
-            None => alive[i] = false,
-            Some(s) => cubes[i] = c.and(&s),
+        let shrunk = (|| {
+            effort.spend(1 + (cubes.len() + dc.len()) as u64 / 8)?;
+            let others: Vec<Cube> = cubes
+                .iter()
+                .enumerate()
+                .filter(|&(j, _)| j != i && alive[j])
+                .map(|(_, d)| *d)
+                .chain(dc.cubes.iter().copied())
+                .filter_map(|d| d.cofactor(&c, vars))
+                .collect();
+            supercube_of_complement(&others, vars, effort)
+        })();
+        match finished(shrunk)? {
+            Some(None) => alive[i] = false,
+            Some(Some(s)) => cubes[i] = c.and(&s),
+            None => {
+                done = false;
+                break;
+            }
         }
     }
-    Ok(Cover {
-        vars,
-        cubes: cubes
-            .into_iter()
-            .zip(alive)
-            .filter_map(|(c, a)| a.then_some(c))
-            .collect(),
-    })
+    let cubes = cubes
+        .into_iter()
+        .zip(alive)
+        .filter_map(|(c, a)| a.then_some(c))
+        .collect();
+    Ok((Cover { vars, cubes }, done))
 }
 
 /// The smallest cube containing the complement of the cover, or `None`

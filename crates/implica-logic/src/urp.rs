@@ -295,7 +295,7 @@ pub(crate) fn split_variable(cubes: &[Cube], vars: usize, candidates: u64) -> us
 }
 
 /// A cube on which the cover is 0 everywhere, or `None` for a tautology.
-fn zero_point(
+pub(crate) fn zero_point(
     cubes: &[Cube],
     vars: usize,
     effort: &mut Effort,

@@ -2,7 +2,7 @@
 //! include this file by path); each test uses a part of them.
 #![allow(dead_code)]
 
-use implica_logic::{BoolExpr, Cover, Cube};
+use implica_logic::{BoolExpr, Cover, Cube, TruthTable};
 use implica_testkit::Rng;
 use proptest::prelude::*;
 
@@ -48,4 +48,23 @@ pub fn random_cover(rng: &mut Rng, vars: usize, cubes: usize, literals: usize) -
             .map(|_| random_cube(rng, vars, literals))
             .collect(),
     }
+}
+
+/// Random functions: each minterm on with probability 3/8, a don't-care with
+/// probability 1/4, off otherwise.
+pub fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable, TruthTable)> {
+    let mut rng = Rng(seed);
+    (0..count)
+        .map(|_| {
+            let (mut on, mut dc) = (TruthTable::zero(vars), TruthTable::zero(vars));
+            for m in 0..(1usize << vars) {
+                match rng.next() % 8 {
+                    0..=2 => on.set(m, true),
+                    3 | 4 => dc.set(m, true),
+                    _ => {}
+                }
+            }
+            (on, dc)
+        })
+        .collect()
 }
