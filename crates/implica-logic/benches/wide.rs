@@ -5,9 +5,9 @@
 
 #[path = "../tests/common/mod.rs"]
 mod common;
-use common::{random_cover, random_functions};
+use common::{minterm_cover, random_cover, random_functions};
 use divan::Bencher;
-use implica_logic::{Bdd, BoolExpr, Cover, Cube, Effort, TruthTable, minimize_heuristic};
+use implica_logic::{Bdd, BoolExpr, Cover, Effort, TruthTable, minimize_heuristic};
 use implica_testkit::Rng;
 
 #[global_allocator]
@@ -110,17 +110,9 @@ const MINTERM_CASES: &[usize] = &[12, 14];
 /// required minterms and of their don't-care minterms: the heuristic's
 /// hardest start, one cube per row.
 fn minterm_starts(vars: usize) -> Vec<(Cover, Cover)> {
-    let minterms = |t: &TruthTable| Cover {
-        vars,
-        cubes: t
-            .minterms()
-            .into_iter()
-            .map(|m| Cube::minterm(vars, m))
-            .collect(),
-    };
     random_functions(vars, 2, 0x9E37_79B9_7F4A_7C15 ^ vars as u64)
         .iter()
-        .map(|(on, dc)| (minterms(&on.and_not(dc)), minterms(dc)))
+        .map(|(on, dc)| (minterm_cover(&on.and_not(dc)), minterm_cover(dc)))
         .collect()
 }
 

@@ -6,7 +6,7 @@
 //! vectors, which shares no code with either).
 
 mod common;
-use common::{random_cover, random_functions};
+use common::{minterm_cover, random_cover, random_functions};
 use implica_logic::{
     Bdd, Budget, Cover, Cube, Effort, Interrupted, TruthTable, minimize_heuristic, minimize_sop,
 };
@@ -18,18 +18,6 @@ fn cost(c: &Cover) -> (usize, usize) {
 
 fn big() -> Effort<'static> {
     Effort::new(u64::MAX / 2)
-}
-
-/// A cover of the minterms of a truth table, one cube each.
-fn minterm_cover(t: &TruthTable) -> Cover {
-    Cover {
-        vars: t.vars(),
-        cubes: t
-            .minterms()
-            .into_iter()
-            .map(|m| Cube::minterm(t.vars(), m))
-            .collect(),
-    }
 }
 
 /// Every cube lies in `allowed` and loses it when any literal is dropped:
