@@ -88,8 +88,19 @@ impl<'a> Effort<'a> {
     }
 
     /// A budget of at most `limit` of the units left, with the same
-    /// cancellation check; charge its use back with [`Effort::spend`].
-    pub(crate) fn part(&self, limit: u64) -> Effort<'a> {
+    /// cancellation check; charge its use back with [`Effort::spend`],
+    /// which then never fails for want of budget (a part is used up, not
+    /// overdrawn, when it runs out).
+    ///
+    /// ```
+    /// use implica_logic::Effort;
+    /// let mut whole = Effort::new(100);
+    /// let mut half = whole.part(50);
+    /// assert!(half.spend(80).is_err());
+    /// assert!(whole.spend(half.used()).is_ok());
+    /// assert_eq!(whole.remaining(), 50);
+    /// ```
+    pub fn part(&self, limit: u64) -> Effort<'a> {
         Effort {
             limit: limit.min(self.remaining()),
             used: 0,

@@ -8,6 +8,7 @@
 //! input under the don't-cares by cube containment before it is returned;
 //! when that check cannot finish, the input comes back unchanged.
 
+use crate::index::CubeIndex;
 use crate::urp::{mask, polarities, split_variable, zero_point};
 use crate::{Cover, Cube, Effort, Interrupted};
 
@@ -359,28 +360,21 @@ fn irredundant(f: &Cover, dc: &Cover, effort: &mut Effort) -> Pass {
     let mut cubes = f.cubes.clone();
     cubes.sort_by_key(|c| std::cmp::Reverse(c.literals(vars)));
     let mut keep = vec![true; cubes.len()];
-    let redundant = |i: usize, keep: &[bool], effort: &mut Effort| {
+    let near = Near::new(&cubes, dc);
+    let mut scratch = Scratch::default();
+    let redundant = |i: usize, keep: &[bool], scratch: &mut Scratch, effort: &mut Effort| {
         let c = cubes[i];
         if c.is_empty(vars) {
             return Ok(true);
         }
-        effort.spend(1 + (cubes.len() + dc.len()) as u64 / 8)?;
         // The others and the don't-cares, cofactored by the cube: a
         // tautology when they cover it.
-        let rest: Vec<Cube> = cubes
-            .iter()
-            .zip(keep)
-            .enumerate()
-            .filter(|&(j, (_, &k))| j != i && k)
-            .map(|(_, (d, _))| d)
-            .chain(&dc.cubes)
-            .filter_map(|d| d.cofactor(&c, vars))
-            .collect();
-        Ok(zero_point(&rest, vars, effort)?.is_none())
+        near.cofactors(&cubes, dc, &c, |j| j != i && keep[j], scratch, effort)?;
+        Ok(zero_point(&scratch.cofactors, vars, effort)?.is_none())
     };
     let mut done = true;
     for i in 0..cubes.len() {
-        match finished(redundant(i, &keep, effort))? {
+        match finished(redundant(i, &keep, &mut scratch, effort))? {
             Some(r) => keep[i] = !r,
             None => {
                 done = false;
@@ -396,6 +390,66 @@ fn irredundant(f: &Cover, dc: &Cover, effort: &mut Effort) -> Pass {
     Ok((Cover { vars, cubes }, done))
 }
 
+/// Indexes of a cover's cubes and of the don't-cares, for the cofactors of
+/// both by one cube after another.
+struct Near {
+    cubes: CubeIndex,
+    dc: CubeIndex,
+}
+
+/// Buffers reused from one cube to the next.
+#[derive(Default)]
+struct Scratch {
+    meeting: Vec<u32>,
+    cofactors: Vec<Cube>,
+}
+
+impl Near {
+    fn new(cubes: &[Cube], dc: &Cover) -> Near {
+        Near {
+            cubes: CubeIndex::new(cubes, dc.vars),
+            dc: CubeIndex::new(&dc.cubes, dc.vars),
+        }
+    }
+
+    /// Into `scratch.cofactors`: the cofactors by `c` of the cubes `j` of
+    /// `cubes` with `take(j)`, then of the don't-cares, each in cover
+    /// order. `cubes` may have been shrunk since the index was made: a
+    /// cube shrunk keeps the literals it had, so it stays where it was
+    /// indexed. Counts one unit per eight cubes visited.
+    fn cofactors(
+        &self,
+        cubes: &[Cube],
+        dc: &Cover,
+        c: &Cube,
+        take: impl Fn(usize) -> bool,
+        scratch: &mut Scratch,
+        effort: &mut Effort,
+    ) -> Result<(), Interrupted> {
+        let vars = dc.vars;
+        scratch.cofactors.clear();
+        self.cubes.meeting(c, &mut scratch.meeting);
+        let mut visited = scratch.meeting.len();
+        scratch.cofactors.extend(
+            scratch
+                .meeting
+                .iter()
+                .map(|&j| j as usize)
+                .filter(|&j| take(j))
+                .filter_map(|j| cubes[j].cofactor(c, vars)),
+        );
+        self.dc.meeting(c, &mut scratch.meeting);
+        visited += scratch.meeting.len();
+        scratch.cofactors.extend(
+            scratch
+                .meeting
+                .iter()
+                .filter_map(|&j| dc.cubes[j as usize].cofactor(c, vars)),
+        );
+        effort.spend(1 + visited as u64 / 8)
+    }
+}
+
 /// Each cube shrunk, in turn, to the smallest cube holding what only it
 /// covers, so that the next expand can grow it in another direction (or
 /// until the budget ends it: the cubes not yet reached stay as they are).
@@ -405,20 +459,14 @@ fn reduce(f: &Cover, dc: &Cover, effort: &mut Effort) -> Pass {
     // The largest cube first: it has the most to give up.
     cubes.sort_by_key(|c| c.literals(vars));
     let mut alive = vec![true; cubes.len()];
+    let near = Near::new(&cubes, dc);
+    let mut scratch = Scratch::default();
     let mut done = true;
     for i in 0..cubes.len() {
         let c = cubes[i];
         let shrunk = (|| {
-            effort.spend(1 + (cubes.len() + dc.len()) as u64 / 8)?;
-            let others: Vec<Cube> = cubes
-                .iter()
-                .enumerate()
-                .filter(|&(j, _)| j != i && alive[j])
-                .map(|(_, d)| *d)
-                .chain(dc.cubes.iter().copied())
-                .filter_map(|d| d.cofactor(&c, vars))
-                .collect();
-            supercube_of_complement(&others, vars, effort)
+            near.cofactors(&cubes, dc, &c, |j| j != i && alive[j], &mut scratch, effort)?;
+            supercube_of_complement(&scratch.cofactors, vars, effort)
         })();
         match finished(shrunk)? {
             Some(None) => alive[i] = false,

@@ -26,6 +26,7 @@ mod expr;
 mod gates;
 mod hash;
 mod heuristic;
+mod index;
 mod minimize;
 mod multi;
 mod render;

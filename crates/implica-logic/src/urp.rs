@@ -22,6 +22,7 @@
 //! assert_eq!(g.complement(&mut effort).unwrap().len(), 1); // x3 & !x7
 //! ```
 
+use crate::index::CubeIndex;
 use crate::{Cover, Cube, Effort, Interrupted};
 
 pub(crate) fn mask(vars: usize) -> u64 {
@@ -181,6 +182,10 @@ impl Cover {
         if c.is_empty(self.vars) {
             return Ok(None);
         }
+        // The cofactor scans the whole cover: count it, at the rate of the
+        // heuristic's own scans, or containment checks against a large
+        // cover would run past any budget.
+        effort.spend(1 + self.cubes.len() as u64 / 8)?;
         let f = self.cofactor(c);
         Ok(zero_point(&f.cubes, self.vars, effort)?.map(|w| w.and(c)))
     }
@@ -193,9 +198,25 @@ impl Cover {
         effort: &mut Effort,
     ) -> Result<Option<Vec<bool>>, Interrupted> {
         assert_eq!(self.vars, other.vars, "covers over different inputs");
+        // Each cube of `other` is checked against the cubes of `self` that
+        // meet it, found by an index rather than a scan of all of `self`.
+        let vars = self.vars;
+        let index = CubeIndex::new(&self.cubes, vars);
+        let (mut meeting, mut f) = (Vec::new(), Vec::new());
         for c in &other.cubes {
-            if let Some(w) = self.uncovered_point(c, effort)? {
-                return Ok(w.point(self.vars));
+            if c.is_empty(vars) {
+                continue;
+            }
+            index.meeting(c, &mut meeting);
+            effort.spend(1 + meeting.len() as u64 / 8)?;
+            f.clear();
+            f.extend(
+                meeting
+                    .iter()
+                    .filter_map(|&p| self.cubes[p as usize].cofactor(c, vars)),
+            );
+            if let Some(w) = zero_point(&f, vars, effort)? {
+                return Ok(w.and(c).point(vars));
             }
         }
         Ok(None)
