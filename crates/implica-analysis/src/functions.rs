@@ -630,8 +630,12 @@ impl Functions {
     }
 
     /// The rows listed by term-list entries, as a function of the `over`
-    /// signals (the first one the most significant bit). A range becomes
-    /// at most two blocks per bit, never one function per row.
+    /// signals (the first one the most significant bit). The entries are
+    /// merged into disjoint ranges, and the function is built by splitting
+    /// the rows on one `over` signal at a time, first to last: a part
+    /// with no listed row is 0 and a part wholly listed is 1, so the work
+    /// grows with the ranges times the signals, never with the rows a
+    /// range spans.
     fn rows(
         &mut self,
         over: &[BddRef],
@@ -643,7 +647,7 @@ impl Functions {
             return Err(Unknown::Malformed.into());
         }
         let last = if k == 64 { u64::MAX } else { (1u64 << k) - 1 };
-        let mut acc = BddRef::FALSE;
+        let mut ranges = Vec::with_capacity(entries.len());
         for entry in entries {
             let (lo, hi) = match entry {
                 TermEntry::Single(n) => (n.value, n.value),
@@ -655,41 +659,58 @@ impl Functions {
             if lo > hi || hi > last {
                 return Err(Unknown::Malformed.into());
             }
-            let (mut lo, hi) = (u128::from(lo), u128::from(hi));
-            while lo <= hi {
-                // The largest aligned block starting at `lo` inside the range.
-                let mut b = if lo == 0 {
-                    k
-                } else {
-                    (lo.trailing_zeros() as usize).min(k)
-                };
-                while lo + (1u128 << b) - 1 > hi {
-                    b -= 1;
-                }
-                let block = self.block(over, lo as u64, b, e)?;
-                acc = self.bdd.or(acc, block, e)?;
-                lo += 1u128 << b;
+            ranges.push((lo, hi));
+        }
+        ranges.sort_unstable();
+        let mut merged: Vec<(u64, u64)> = Vec::with_capacity(ranges.len());
+        for (lo, hi) in ranges {
+            match merged.last_mut() {
+                Some(prev) if lo <= prev.1.saturating_add(1) => prev.1 = prev.1.max(hi),
+                _ => merged.push((lo, hi)),
             }
         }
-        Ok(acc)
+        let negated = over
+            .iter()
+            .map(|&v| self.bdd.not(v, e))
+            .collect::<Result<Vec<_>, _>>()?;
+        Ok(self.split_rows(over, &negated, 0, 0, &merged, e)?)
     }
 
-    /// The rows whose high `k - free` bits equal those of `prefix`.
-    fn block(
+    /// The rows of `ranges` (disjoint, ascending, not adjacent, each
+    /// meeting the part) within the part of the rows whose bits before
+    /// `j` are those of `base`, as a function of `over[j..]`.
+    fn split_rows(
         &mut self,
         over: &[BddRef],
-        prefix: u64,
-        free: usize,
+        negated: &[BddRef],
+        j: usize,
+        base: u128,
+        ranges: &[(u64, u64)],
         e: &mut Effort,
-    ) -> Result<BddRef, Fail> {
+    ) -> Result<BddRef, Interrupted> {
         let k = over.len();
-        let mut acc = BddRef::TRUE;
-        for (j, &v) in over.iter().enumerate().take(k - free) {
-            let bit = (prefix >> (k - 1 - j)) & 1 == 1;
-            let lit = if bit { v } else { self.bdd.not(v, e)? };
-            acc = self.bdd.and(acc, lit, e)?;
+        let end = base + (1u128 << (k - j)) - 1;
+        match ranges {
+            [] => return Ok(BddRef::FALSE),
+            [(lo, hi)] if u128::from(*lo) <= base && u128::from(*hi) >= end => {
+                return Ok(BddRef::TRUE);
+            }
+            _ => {}
         }
-        Ok(acc)
+        e.spend(1)?;
+        // Ranges not adjacent cannot fill a part together, so a part with
+        // a range left has a row to split on: j < k.
+        let mid = base + (1u128 << (k - j - 1));
+        let below = ranges.partition_point(|&(lo, _)| u128::from(lo) < mid);
+        let above = ranges.partition_point(|&(_, hi)| u128::from(hi) < mid);
+        let zero = self.split_rows(over, negated, j + 1, base, &ranges[..below], e)?;
+        let one = self.split_rows(over, negated, j + 1, mid, &ranges[above..], e)?;
+        if zero == one {
+            return Ok(zero);
+        }
+        let with_one = self.bdd.and(over[j], one, e)?;
+        let with_zero = self.bdd.and(negated[j], zero, e)?;
+        self.bdd.or(with_one, with_zero, e)
     }
 
     fn expr(&mut self, model: &Model, x: &Expr, e: &mut Effort) -> Result<BddRef, Fail> {

@@ -116,7 +116,17 @@ pub fn forms_of(
         pos: None,
     };
     if sop {
-        forms.sop = Some(form(f, &forms.local, false, budget, effort)?);
+        // With both forms asked for, the sum gets at most half the work,
+        // so that a heuristic that uses all it is given leaves the product
+        // its share.
+        let mut part = effort.part(if pos {
+            effort.remaining() / 2
+        } else {
+            effort.remaining()
+        });
+        let sum = form(f, &forms.local, false, budget, &mut part);
+        effort.spend(part.used())?;
+        forms.sop = Some(sum?);
     }
     if pos {
         forms.pos = Some(form(f, &forms.local, true, budget, effort)?);

@@ -72,6 +72,113 @@ fn term_lists_with_ranges_and_dont_cares() {
 }
 
 #[test]
+fn overlapping_ranges_repeats_and_order_in_a_term_list() {
+    // Rows 0, 3 to 9 (3..5 and 4..8 overlap, 9 is adjacent and repeated)
+    // and 15 (wholly inside 12..15, given first); counted by hand.
+    let src = "input b3, b2, b1, b0\noutput g\n\
+               g = on(12..15, 9, 3..5, 4..8, 9, 0, 15) over (b3, b2, b1, b0)\n";
+    let (_, on, _) = tables(src, "g");
+    assert_eq!(on, [0, 3, 4, 5, 6, 7, 8, 9, 12, 13, 14, 15]);
+    // Over signals given in an order other than their declaration: row 1
+    // of `over (b0, b3)` is b0 = 0, b3 = 1, which is row 2 over (b3, b0).
+    let src = "input b3, b2, b1, b0\noutput h\nh = on(1) over (b0, b3)\n";
+    let (names, on, _) = tables(src, "h");
+    assert_eq!(names, ["b3", "b0"]);
+    assert_eq!(on, [2]);
+}
+
+#[test]
+fn a_long_term_list_over_eighteen_inputs_is_computed_within_the_default_budget() {
+    // About 98,000 single rows and 65,000 don't-cares over 18 inputs (a table
+    // exported by another program, say): the list is built by splitting
+    // the rows input by input, not row by row, so it fits the budget an
+    // editor gives a definition.
+    let n = 18;
+    let mut rng = implica_testkit::Rng(18);
+    let (mut on, mut dc) = (Vec::new(), Vec::new());
+    for m in 0..1usize << n {
+        match rng.next() % 8 {
+            0..=2 => on.push(m),
+            3 | 4 => dc.push(m),
+            _ => {}
+        }
+    }
+    let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
+    let list = |rows: &[usize]| {
+        rows.iter()
+            .map(|m| m.to_string())
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    let src = format!(
+        "input {}\noutput y\ny = on({}) dc({}) over ({})\n",
+        names.join(", "),
+        list(&on),
+        list(&dc),
+        names.join(", ")
+    );
+    let (file, errors) = implica_syntax::parse(&src);
+    assert!(errors.is_empty(), "{errors:?}");
+    let model = Model::build(&file);
+    let mut f = Functions::compute(
+        &model,
+        implica_analysis::functions::DEFAULT_WORK_PER_DEFINITION,
+        None,
+    )
+    .unwrap();
+    let s = model.signal("y").unwrap();
+    let local = f.local(s, &mut Effort::new(1_000_000)).unwrap().unwrap();
+    assert_eq!(local.inputs.len(), n);
+    let got_on = f.bdd.to_truth_table(local.on, &local.inputs).minterms();
+    let got_dc = f.bdd.to_truth_table(local.dc, &local.inputs).minterms();
+    assert_eq!(got_dc, dc);
+    assert_eq!(got_on, on);
+}
+
+#[test]
+fn both_forms_past_the_exact_limit_each_get_a_share_of_the_work() {
+    // A random 17-input function with don't-cares: past the exact limit,
+    // so both forms go to the heuristic, which here uses all the work it
+    // is given. The sum must leave the product its share (without it, the
+    // product's first step ran out), and each must come back as a form.
+    let n = 17;
+    let mut rng = implica_testkit::Rng(17);
+    let (mut on, mut dc) = (Vec::new(), Vec::new());
+    for m in 0..1usize << n {
+        match rng.next() % 8 {
+            0..=2 => on.push(m.to_string()),
+            3 | 4 => dc.push(m.to_string()),
+            _ => {}
+        }
+    }
+    let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
+    let src = format!(
+        "input {}\noutput y\ny = on({}) dc({}) over ({})\n",
+        names.join(", "),
+        on.join(", "),
+        dc.join(", "),
+        names.join(", ")
+    );
+    let (file, _) = implica_syntax::parse(&src);
+    let model = Model::build(&file);
+    let mut f = Functions::compute(
+        &model,
+        implica_analysis::functions::DEFAULT_WORK_PER_DEFINITION,
+        None,
+    )
+    .unwrap();
+    let s = model.signal("y").unwrap();
+    let budget = implica_logic::Budget::default();
+    let mut effort = Effort::new(1_000_000);
+    let forms =
+        implica_analysis::minimal::minimal_forms(&mut f, s, true, true, &budget, &mut effort)
+            .expect("the work is shared, not run out")
+            .unwrap();
+    let (sop, pos) = (forms.sop.unwrap().unwrap(), forms.pos.unwrap().unwrap());
+    assert!(sop.terms > 0 && pos.terms > 0);
+}
+
+#[test]
 fn a_term_list_over_intermediates_composes() {
     // u = a & b, v = c; w = on(1, 2) over (u, v) is u ^ v.
     let src = "input a, b, c\noutput w\nlet u = a & b\nlet v = c\nw = on(1, 2) over (u, v)\n";
