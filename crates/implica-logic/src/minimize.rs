@@ -217,6 +217,9 @@ struct PrimeSearch<'a> {
     too_many: bool,
     stop: Stop<'a>,
     visits: u32,
+    /// Table words the search has read, for callers that bound the work
+    /// of many searches together.
+    words: u64,
     cancelled: bool,
     /// The child tables of each depth.
     scratch: Vec<Scratch>,
@@ -239,6 +242,7 @@ impl PrimeSearch<'_> {
     fn visit(&mut self, free: u32, tables: (&[u64], &[u64], &[u32]), next: usize, depth: usize) {
         let (care, need, bound_high) = tables;
         self.visits = self.visits.wrapping_add(1);
+        self.words += care.len() as u64;
         if self.visits.is_multiple_of(PRIME_POLL) && (self.stop)() {
             self.cancelled = true;
             self.too_many = true;
@@ -402,6 +406,16 @@ pub(crate) fn primes_of(
     budget: &Budget,
     stop: Stop,
 ) -> Result<Vec<Implicant>, Stopped> {
+    primes_and_work(on, dc, budget, stop).map(|(primes, _)| primes)
+}
+
+/// [`primes_of`], with the number of table words the search read.
+pub(crate) fn primes_and_work(
+    on: &TruthTable,
+    dc: &TruthTable,
+    budget: &Budget,
+    stop: Stop,
+) -> Result<(Vec<Implicant>, u64), Stopped> {
     check_size(on, dc, budget)?;
     let vars = on.vars();
     let low = vars.min(6);
@@ -413,6 +427,7 @@ pub(crate) fn primes_of(
         too_many: false,
         stop,
         visits: 0,
+        words: 0,
         cancelled: false,
         scratch: Vec::new(),
     };
@@ -434,7 +449,7 @@ pub(crate) fn primes_of(
     }
     let mut primes = search.primes;
     primes.sort();
-    Ok(primes)
+    Ok((primes, search.words))
 }
 
 /// Refuses a covering matrix of more than [`Budget::max_entries`] entries,
@@ -1052,7 +1067,7 @@ const REDUCE_POLL: usize = 1024;
 
 /// The reductions and exchanges may do this many times the search's work
 /// budget, on a meter of their own.
-const PASSES_SHARE: u64 = 4;
+pub(crate) const PASSES_SHARE: u64 = 4;
 
 /// The floor of subgradient steps that gives every component a bound runs
 /// on to this many times the work budget, and no further.

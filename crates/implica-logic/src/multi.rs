@@ -25,9 +25,10 @@
 //! ```
 
 use crate::minimize::{
-    Implicant, Stop, Stopped, isolated, never, pack_rows, primes_of, solve_cover, sop,
+    Implicant, PASSES_SHARE, Stop, Stopped, isolated, never, pack_rows, primes_and_work,
+    solve_cover, sop,
 };
-use crate::{Budget, Cover, Cube, Interrupted, TooLarge, TruthTable};
+use crate::{Budget, Cover, Cube, Interrupted, Minimized, TooLarge, TruthTable};
 use std::collections::HashSet;
 
 /// Most outputs minimized together (the prime generation visits sets of
@@ -121,7 +122,11 @@ fn refuse(reason: String, outputs: &[(TruthTable, TruthTable)]) -> TooLarge {
 /// Each output is first minimized alone (for the comparison and a bound),
 /// then the shared cover is searched; each of these gets the whole budget,
 /// except `max_primes`, which counts the primes of every set of outputs
-/// together.
+/// together. The sets of outputs, up to 2^outputs of them (outputs that
+/// leave a set's product as it is are not branched on), have their table
+/// work counted against four times `max_work`: past it, the separate
+/// covers come back put together, not proven minimal, with the largest
+/// of their bounds.
 pub fn minimize_multi(
     outputs: &[(TruthTable, TruthTable)],
     budget: &Budget,
@@ -175,38 +180,62 @@ fn multi(
     let mut found: HashSet<Implicant> = HashSet::new();
     let mut columns: Vec<Implicant> = Vec::new();
     let mut generated = 0usize;
+    // The sets of outputs are up to 2^outputs: the table words read for
+    // them, by the products and by each prime search, are counted against
+    // the budget, as the cover search's reductions are.
+    let work_limit = budget.max_work.saturating_mul(PASSES_SHARE);
+    let mut words = 0u64;
+    let mut cut = false;
+    let table_words = (1u64 << vars).div_ceil(64);
     let mut stack: Vec<(usize, TruthTable, TruthTable)> = Vec::new();
     for i in 0..outputs.len() {
         stack.push((i, care[i].clone(), need[i].clone()));
     }
     while let Some((last, product, wanted)) = stack.pop() {
-        let wanted = wanted.and(&product);
+        words += table_words * (outputs.len() - last) as u64;
+        if words > work_limit {
+            cut = true;
+            break;
+        }
+        let mut wanted = wanted.and(&product);
+        // An output whose care set holds the whole product leaves it as it
+        // is: every set with it has the primes of a set without it, wanted
+        // on more minterms. Its required minterms join this set's, and the
+        // search does not branch on it (identical outputs cost one search).
+        let mut branch = Vec::with_capacity(outputs.len() - last);
+        for next in last + 1..outputs.len() {
+            if care[next].covers(&product) {
+                wanted = wanted.or(&need[next].and(&product));
+            } else {
+                branch.push(next);
+            }
+        }
         if !wanted.is_zero() {
             let left = Budget {
                 max_primes: budget.max_primes.saturating_sub(generated),
                 ..budget.clone()
             };
-            let primes = primes_of(&wanted, &product.and_not(&wanted), &left, stop).map_err(
-                |e| match e {
-                    Stopped::Cancelled => Stopped::Cancelled,
-                    Stopped::TooLarge(_) => refuse(
-                        format!(
-                            "more than {} prime implicants over the sets of outputs",
-                            budget.max_primes
-                        ),
-                        outputs,
-                    )
-                    .into(),
-                },
-            )?;
+            let (primes, read) = primes_and_work(&wanted, &product.and_not(&wanted), &left, stop)
+                .map_err(|e| match e {
+                Stopped::Cancelled => Stopped::Cancelled,
+                Stopped::TooLarge(_) => refuse(
+                    format!(
+                        "more than {} prime implicants over the sets of outputs",
+                        budget.max_primes
+                    ),
+                    outputs,
+                )
+                .into(),
+            })?;
             generated += primes.len();
+            words += read;
             for p in primes {
                 if found.insert(p) {
                     columns.push(p);
                 }
             }
         }
-        for next in last + 1..outputs.len() {
+        for next in branch {
             let narrower = product.and(&care[next]);
             if !narrower.is_zero() {
                 stack.push((next, narrower, wanted.or(&need[next])));
@@ -214,6 +243,20 @@ fn multi(
         }
     }
     columns.sort();
+    if cut {
+        // Past the work: the separate covers put together, with the bound
+        // of the output that needs the most terms.
+        let mut result = pooled(vars, &separate, &need, &care);
+        result.primes = columns.len();
+        result.proven_minimal = false;
+        result.lower_bound = separate
+            .iter()
+            .map(|s| s.lower_bound)
+            .max()
+            .unwrap_or(0)
+            .min(result.terms.len());
+        return Ok(result);
+    }
 
     // Rows: (output, required minterm). A column covers the rows of every
     // output whose care set holds it.
@@ -229,19 +272,21 @@ fn multi(
         total_rows += n.count_ones();
         rows_of_output.push(index);
     }
-    let entries: u64 = columns
+    // Which outputs each column serves, and the matrix's entries, take a
+    // visit of each column's minterms per output: refused past four times
+    // the entry limit, and the entries counted exactly past the limit, as
+    // for one output.
+    let visits: u64 = columns
         .iter()
         .map(|p| (1u64 << p.free.count_ones()) * outputs.len() as u64)
         .sum();
-    if entries > budget.max_entries {
-        return Err(refuse(
-            format!(
-                "a covering matrix of more than {} entries",
-                budget.max_entries
-            ),
-            outputs,
-        )
-        .into());
+    let too_large = |what: String| -> Stopped { refuse(what, outputs).into() };
+    if visits > budget.max_entries.saturating_mul(4) {
+        return Err(too_large(format!(
+            "{} prime implicants holding more than {} minterms over the outputs",
+            columns.len(),
+            budget.max_entries.saturating_mul(4)
+        )));
     }
     let serves: Vec<Vec<usize>> = columns
         .iter()
@@ -251,6 +296,20 @@ fn multi(
                 .collect()
         })
         .collect();
+    if visits > budget.max_entries {
+        let mut entries = 0u64;
+        for (p, outs) in columns.iter().zip(&serves) {
+            for &i in outs {
+                entries += p.minterms().filter(|&m| need[i].get(m)).count() as u64;
+            }
+            if entries > budget.max_entries {
+                return Err(too_large(format!(
+                    "a covering matrix of more than {} entries",
+                    budget.max_entries
+                )));
+            }
+        }
+    }
     let rows = pack_rows(total_rows, |entry| {
         for (c, p) in columns.iter().enumerate() {
             for &i in &serves[c] {
@@ -283,17 +342,11 @@ fn multi(
         .max(solution.lower_bound_terms);
     result.proven_minimal = solution.proven;
     result.primes = columns.len();
-    result.separate_terms = separate.iter().map(|s| s.cover.len()).sum();
-    result.separate_literals = separate.iter().map(|s| s.cover.literals()).sum();
     // A search cut short may do worse than the separate covers put
     // together; never return that.
-    let mut union: Vec<Cube> = separate
-        .iter()
-        .flat_map(|s| s.cover.cubes.clone())
-        .collect();
-    union.sort();
-    union.dedup();
-    let pooled = assemble(vars, union, &need, &care);
+    let pooled = pooled(vars, &separate, &need, &care);
+    result.separate_terms = pooled.separate_terms;
+    result.separate_literals = pooled.separate_literals;
     if (pooled.terms.len(), pooled.literals()) < (result.terms.len(), result.literals()) {
         result.terms = pooled.terms;
         result.uses = pooled.uses;
@@ -304,6 +357,26 @@ fn multi(
         lower.min(result.terms.len())
     };
     Ok(result)
+}
+
+/// The separate covers put together (a term two outputs chose is shared),
+/// with their cost apart.
+fn pooled(
+    vars: usize,
+    separate: &[Minimized],
+    need: &[TruthTable],
+    care: &[TruthTable],
+) -> MultiMinimized {
+    let mut union: Vec<Cube> = separate
+        .iter()
+        .flat_map(|s| s.cover.cubes.clone())
+        .collect();
+    union.sort();
+    union.dedup();
+    let mut result = assemble(vars, union, need, care);
+    result.separate_terms = separate.iter().map(|s| s.cover.len()).sum();
+    result.separate_literals = separate.iter().map(|s| s.cover.literals()).sum();
+    result
 }
 
 /// The solution of the given distinct terms: each output sums the terms

@@ -214,3 +214,45 @@ fn kiosk_digit_display_shares_terms() {
     assert!(!r.shared().is_empty());
     assert!(r.terms.len() < r.separate_terms);
 }
+
+#[test]
+fn identical_outputs_cost_one_search() {
+    // Sixteen outputs, all the constant 1 over 12 inputs: every set of them
+    // has the same product, so none is branched on; the answer is the one
+    // empty product, shared (common practice: 1 is the empty product).
+    let one = (TruthTable::one(12), TruthTable::zero(12));
+    let outputs = vec![one; MAX_OUTPUTS];
+    let r = minimize_multi(&outputs, &Budget::default()).unwrap();
+    check_outputs(&outputs, &r);
+    assert_eq!((r.terms.len(), r.separate_terms), (1, 16));
+    assert!(r.proven_minimal);
+}
+
+#[test]
+fn past_the_work_for_the_sets_of_outputs_the_separate_covers_come_back_pooled() {
+    // out_i = x9 | x_(i mod 9) over 10 inputs: sets of outputs with
+    // different x_i have products of their own, 2^9 of them. With little
+    // work the shared search is cut short, and the separate covers come
+    // back put together: x9 once and each x_i, 10 terms (worked out by
+    // hand), not proven, bounded by the 2 terms each output needs.
+    let outputs: Vec<_> = (0..12)
+        .map(|i| {
+            let f = TruthTable::var(10, 9).or(&TruthTable::var(10, i % 9));
+            (f, TruthTable::zero(10))
+        })
+        .collect();
+    let small = Budget {
+        max_work: 10_000,
+        ..Budget::default()
+    };
+    let r = minimize_multi(&outputs, &small).unwrap();
+    check_outputs(&outputs, &r);
+    assert_eq!((r.terms.len(), r.separate_terms), (10, 24));
+    assert!(!r.proven_minimal);
+    assert_eq!(r.lower_bound, 2);
+    // With the default budget the shared search runs, and finds the same.
+    let full = minimize_multi(&outputs, &Budget::default()).unwrap();
+    check_outputs(&outputs, &full);
+    assert_eq!(full.terms.len(), 10);
+    assert!(full.proven_minimal);
+}
