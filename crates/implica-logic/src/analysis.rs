@@ -3,7 +3,10 @@
 //!
 //! They work on truth tables: each panics, as [`TruthTable`] does, when the
 //! cover has more than [`crate::MAX_VARS`] inputs or the don't-cares are
-//! over a different number of inputs.
+//! over a different number of inputs. Each reads every term's table once
+//! (redundancy: the rows one term covers and those two or more do;
+//! hazards: per input, the rows a term free on it holds), so its cost
+//! grows with the terms times the table, not with the square of the terms.
 //!
 //! ```
 //! use implica_logic::{Budget, Cover, Cube, TruthTable, hazard_free_cover, redundant_terms, static1_hazards};
@@ -33,23 +36,37 @@ fn required(on: &TruthTable, dc: &TruthTable) -> TruthTable {
 /// all the other terms; removing them one at a time, rechecking after each,
 /// keeps the function.
 pub fn redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<usize> {
-    let on = cover.truth_table();
-    let need = required(&on, dc);
-    let tables: Vec<TruthTable> = cover
-        .cubes
-        .iter()
-        .map(|c| c.truth_table(cover.vars))
-        .collect();
+    let c = Coverage::of(cover);
+    let need = required(&c.once, dc);
     (0..cover.len())
-        .filter(|&i| {
-            let others = tables
-                .iter()
-                .enumerate()
-                .filter(|&(j, _)| j != i)
-                .fold(TruthTable::zero(cover.vars), |acc, (_, t)| acc.or(t));
-            others.covers(&need)
-        })
+        .filter(|&i| c.tables[i].and(&need).and_not(&c.twice).is_zero())
         .collect()
+}
+
+/// Each term's truth table, and the rows at least one term covers and at
+/// least two do: a term is needed exactly on the required rows it alone
+/// covers, so one pass over the terms answers for all of them.
+struct Coverage {
+    tables: Vec<TruthTable>,
+    once: TruthTable,
+    twice: TruthTable,
+}
+
+impl Coverage {
+    fn of(cover: &Cover) -> Coverage {
+        let vars = cover.vars;
+        let tables: Vec<TruthTable> = cover.cubes.iter().map(|c| c.truth_table(vars)).collect();
+        let (mut once, mut twice) = (TruthTable::zero(vars), TruthTable::zero(vars));
+        for t in &tables {
+            twice = twice.or(&once.and(t));
+            once = once.or(t);
+        }
+        Coverage {
+            tables,
+            once,
+            twice,
+        }
+    }
 }
 
 /// Why a term of a cover is redundant (see [`classify_redundant_terms`]).
@@ -96,25 +113,30 @@ pub enum Redundancy {
 /// );
 /// ```
 pub fn classify_redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<(usize, Redundancy)> {
-    let vars = cover.vars;
-    redundant_terms(cover, dc)
-        .into_iter()
+    let coverage = Coverage::of(cover);
+    let need = required(&coverage.once, dc);
+    (0..cover.len())
+        .filter(|&i| {
+            coverage.tables[i]
+                .and(&need)
+                .and_not(&coverage.twice)
+                .is_zero()
+        })
         .map(|i| {
             let c = cover.cubes[i];
-            let own = c.truth_table(vars);
+            let own = &coverage.tables[i];
             let others = || cover.cubes.iter().enumerate().filter(move |&(j, _)| j != i);
-            let why = if dc.covers(&own) {
+            let why = if dc.covers(own) {
                 Redundancy::DontCaresOnly
             } else if let Some((j, _)) = others().find(|&(_, d)| *d == c) {
                 Redundancy::Duplicate { of: j }
             } else if let Some((j, _)) = others().find(|&(_, d)| d.contains(&c)) {
                 Redundancy::Absorbed { by: j }
             } else {
-                let rest = others().fold(TruthTable::zero(vars), |acc, (_, d)| {
-                    acc.or(&d.truth_table(vars))
-                });
+                // The others cover all of the term exactly where another
+                // term covers each of its rows.
                 Redundancy::Covered {
-                    with_dont_cares: !rest.covers(&own),
+                    with_dont_cares: !coverage.twice.covers(own),
                 }
             };
             (i, why)
@@ -162,26 +184,43 @@ pub fn redundant_literals(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)>
 /// can glitch the output to 0.
 pub fn static1_hazards(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
     let vars = cover.vars;
-    let need = required(&cover.truth_table(), dc);
+    let coverage = Coverage::of(cover);
+    let need = required(&coverage.once, dc);
     let mut out = Vec::new();
-    for a in need.minterms() {
-        for bit in 0..vars {
-            let b = a | (1 << bit);
-            if b == a || !need.get(b) {
-                continue;
-            }
-            let joint = Cube::minterm(vars, a);
-            let joint = Cube {
-                zero: joint.zero | 1 << (vars - 1 - bit),
-                one: joint.one | 1 << (vars - 1 - bit),
-            };
-            if !cover.cubes.iter().any(|c| c.contains(&joint)) {
-                out.push((a, b));
-            }
-        }
+    for (v, h) in hazards(cover, &coverage.tables, &need).iter().enumerate() {
+        out.extend(
+            h.minterms()
+                .into_iter()
+                .map(|a| (a, a + (1 << (vars - 1 - v)))),
+        );
     }
     out.sort();
     out
+}
+
+/// For each variable `v`, the required rows `a` with `v = 0` whose
+/// neighbour across `v` is required too and that no term free on `v`
+/// holds: the hazards `(a, a with v = 1)`. One pass over the terms and one
+/// table operation per variable, whatever the number of terms.
+fn hazards(cover: &Cover, tables: &[TruthTable], need: &TruthTable) -> Vec<TruthTable> {
+    let vars = cover.vars;
+    let mut joined = vec![TruthTable::zero(vars); vars];
+    for (c, t) in cover.cubes.iter().zip(tables) {
+        for (v, j) in joined.iter_mut().enumerate() {
+            if c.literal_of(v).is_none() {
+                *j = j.or(t);
+            }
+        }
+    }
+    joined
+        .iter()
+        .enumerate()
+        .map(|(v, j)| {
+            need.and(&need.flip(v))
+                .and_not(&TruthTable::var(vars, v))
+                .and_not(j)
+        })
+        .collect()
 }
 
 /// Static-0 hazards of a product of sums, given as the sum of products of
@@ -242,9 +281,23 @@ pub fn hazard_free_cover(
     }
     let primes = prime_implicants(on, dc, budget)?;
     let mut out = cover.clone();
+    let coverage = Coverage::of(cover);
+    // A prime added lies inside the function or the don't-cares, so the
+    // required rows stay those of `cover`, and the hazards only shrink.
+    let mut left = hazards(cover, &coverage.tables, &required(&coverage.once, dc));
     loop {
-        let hazards = static1_hazards(&out, dc);
-        let Some(&(a, b)) = hazards.first() else {
+        // The smallest pair first, as `static1_hazards` lists them: the
+        // lowest row, then the nearest neighbour (the last variable).
+        let mut first: Option<(usize, usize)> = None;
+        for (v, h) in left.iter().enumerate() {
+            if let Some(a) = h.counterexample(&TruthTable::zero(vars)) {
+                let pair = (a, a + (1 << (vars - 1 - v)));
+                if first.is_none_or(|f| pair < f) {
+                    first = Some(pair);
+                }
+            }
+        }
+        let Some((a, b)) = first else {
             return Ok(out);
         };
         let (ca, cb) = (Cube::minterm(vars, a), Cube::minterm(vars, b));
@@ -262,5 +315,11 @@ pub fn hazard_free_cover(
             )));
         };
         out.cubes.push(fix);
+        let t = fix.truth_table(vars);
+        for (v, h) in left.iter_mut().enumerate() {
+            if fix.literal_of(v).is_none() {
+                *h = h.and_not(&t);
+            }
+        }
     }
 }

@@ -179,3 +179,131 @@ fn redundant_terms_are_classified() {
         ]
     );
 }
+
+/// The definitions, evaluated directly on minterms: a term holds a row
+/// when it evaluates to 1 there.
+mod direct {
+    use implica_logic::{Cover, Cube, TruthTable};
+
+    pub fn holds(c: &Cube, vars: usize, m: usize) -> bool {
+        let inputs: Vec<bool> = (0..vars).map(|i| (m >> (vars - 1 - i)) & 1 == 1).collect();
+        Cover {
+            vars,
+            cubes: vec![*c],
+        }
+        .eval(&inputs)
+    }
+
+    fn required(cover: &Cover, dc: &TruthTable) -> Vec<bool> {
+        (0..1usize << cover.vars)
+            .map(|m| !dc.get(m) && cover.cubes.iter().any(|c| holds(c, cover.vars, m)))
+            .collect()
+    }
+
+    /// Adjacent required rows that no single term holds both of.
+    pub fn hazards(cover: &Cover, dc: &TruthTable) -> Vec<(usize, usize)> {
+        let (vars, need) = (cover.vars, required(cover, dc));
+        let mut out = Vec::new();
+        for a in 0..1usize << vars {
+            for bit in 0..vars {
+                let b = a | 1 << bit;
+                if b != a && need[a] && need[b] {
+                    let one = cover
+                        .cubes
+                        .iter()
+                        .any(|c| holds(c, vars, a) && holds(c, vars, b));
+                    if !one {
+                        out.push((a, b));
+                    }
+                }
+            }
+        }
+        out.sort();
+        out
+    }
+
+    /// Terms whose required rows the other terms all hold.
+    pub fn redundant(cover: &Cover, dc: &TruthTable) -> Vec<usize> {
+        let (vars, need) = (cover.vars, required(cover, dc));
+        (0..cover.len())
+            .filter(|&i| {
+                (0..1usize << vars).all(|m| {
+                    !need[m]
+                        || cover
+                            .cubes
+                            .iter()
+                            .enumerate()
+                            .any(|(j, c)| j != i && holds(c, vars, m))
+                })
+            })
+            .collect()
+    }
+}
+
+#[test]
+fn the_analyses_agree_with_their_definitions_evaluated_row_by_row() {
+    let mut rng = implica_testkit::Rng(0x4A2A);
+    let mut seen = (0, 0);
+    for round in 0..400 {
+        let vars = 2 + round % 7;
+        let cubes = (0..1 + round % 14)
+            .map(|_| {
+                let mut c = Cube::universe(vars);
+                for i in 0..vars {
+                    match rng.next() % 3 {
+                        0 => c = c.and(&Cube::literal(vars, i, true)),
+                        1 => c = c.and(&Cube::literal(vars, i, false)),
+                        _ => {}
+                    }
+                }
+                c
+            })
+            .collect();
+        let f = Cover { vars, cubes };
+        let mut dc = TruthTable::zero(vars);
+        for m in 0..1usize << vars {
+            if rng.next() % 6 == 0 {
+                dc.set(m, true);
+            }
+        }
+        let hazards = static1_hazards(&f, &dc);
+        assert_eq!(hazards, direct::hazards(&f, &dc), "round {round}");
+        let redundant = redundant_terms(&f, &dc);
+        assert_eq!(redundant, direct::redundant(&f, &dc), "round {round}");
+        let classes = classify_redundant_terms(&f, &dc);
+        assert_eq!(
+            classes.iter().map(|&(i, _)| i).collect::<Vec<_>>(),
+            redundant
+        );
+        for &(i, why) in &classes {
+            if let Redundancy::Covered { with_dont_cares } = why {
+                // Covered without the don't-cares: every row of the term is
+                // held by another term.
+                let by_others = (0..1usize << vars).all(|m| {
+                    !direct::holds(&f.cubes[i], vars, m)
+                        || f.cubes
+                            .iter()
+                            .enumerate()
+                            .any(|(j, c)| j != i && direct::holds(c, vars, m))
+                });
+                assert_eq!(with_dont_cares, !by_others, "round {round}");
+            }
+        }
+        // The hazard-free cover: the same function, no hazard left, and
+        // only primes added.
+        let on = f.truth_table();
+        let free = hazard_free_cover(&f, &on, &dc, &Budget::default()).unwrap();
+        assert!(direct::hazards(&free, &dc).is_empty(), "round {round}");
+        let care = !&dc;
+        assert_eq!(
+            free.truth_table().and(&care),
+            on.and(&care),
+            "round {round}"
+        );
+        assert_eq!(&free.cubes[..f.len()], &f.cubes[..]);
+        seen.0 += hazards.len();
+        seen.1 += redundant.len();
+    }
+    // The random covers have hazards and redundant terms to find.
+    assert!(seen.0 > 100 && seen.1 > 100, "{seen:?}");
+}
