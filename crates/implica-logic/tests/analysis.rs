@@ -262,7 +262,7 @@ fn the_analyses_agree_with_their_definitions_evaluated_row_by_row() {
         let f = Cover { vars, cubes };
         let mut dc = TruthTable::zero(vars);
         for m in 0..1usize << vars {
-            if rng.next() % 6 == 0 {
+            if rng.next().is_multiple_of(6) {
                 dc.set(m, true);
             }
         }
