@@ -161,14 +161,7 @@ pub fn check_logic(data: &[u8]) {
 
     // The heuristic, from the on-set's minterms: never larger, never wrong,
     // never below the exact search's proven bound.
-    let minterms = |t: &TruthTable| Cover {
-        vars,
-        cubes: t
-            .minterms()
-            .into_iter()
-            .map(|m| Cube::minterm(vars, m))
-            .collect(),
-    };
+    let minterms = Cover::from_truth_table;
     let start = minterms(&on.and_not(dc));
     let h = minimize_heuristic(&start, &minterms(dc), &mut Effort::new(5_000_000))
         .expect("not cancelled");

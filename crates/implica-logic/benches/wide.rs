@@ -5,7 +5,7 @@
 
 #[path = "../tests/common/mod.rs"]
 mod common;
-use common::{minterm_cover, random_cover, random_functions};
+use common::{random_cover, random_functions};
 use divan::Bencher;
 use implica_logic::{Bdd, BoolExpr, Cover, Effort, TruthTable, minimize_heuristic};
 use implica_testkit::Rng;
@@ -112,7 +112,12 @@ const MINTERM_CASES: &[usize] = &[12, 14];
 fn minterm_starts(vars: usize) -> Vec<(Cover, Cover)> {
     random_functions(vars, 2, 0x9E37_79B9_7F4A_7C15 ^ vars as u64)
         .iter()
-        .map(|(on, dc)| (minterm_cover(&on.and_not(dc)), minterm_cover(dc)))
+        .map(|(on, dc)| {
+            (
+                Cover::from_truth_table(&on.and_not(dc)),
+                Cover::from_truth_table(dc),
+            )
+        })
         .collect()
 }
 

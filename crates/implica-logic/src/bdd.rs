@@ -515,6 +515,47 @@ impl Bdd {
         Ok(Some(BddRef(if f.0 <= 1 { f.0 } else { memo[&f.0] })))
     }
 
+    /// The function of a truth table, table variable `i` being diagram
+    /// variable `i` (so at most [`Bdd::vars`] of them), built from the rows
+    /// up, one level of nodes per variable.
+    ///
+    /// ```
+    /// use implica_logic::{Bdd, Effort, TruthTable};
+    /// let t = TruthTable::var(3, 0).xor(&TruthTable::var(3, 2));
+    /// let mut bdd = Bdd::new(3);
+    /// let f = bdd.from_truth_table(&t, &mut Effort::new(1_000)).unwrap();
+    /// assert_eq!(bdd.to_truth_table(f, &[0, 1, 2]), t);
+    /// assert_eq!(bdd.support(f), vec![0, 2]);
+    /// ```
+    ///
+    /// # Panics
+    ///
+    /// When the table has more variables than the diagram.
+    pub fn from_truth_table(
+        &mut self,
+        t: &crate::TruthTable,
+        effort: &mut Effort,
+    ) -> Result<BddRef, Interrupted> {
+        let n = t.vars();
+        assert!(
+            n <= self.vars,
+            "a table over {n} inputs, a diagram over {}",
+            self.vars
+        );
+        // The nodes of the last level are the rows' values; each level up
+        // joins pairs of neighbours across its variable.
+        let mut level: Vec<u32> = (0..1usize << n).map(|m| u32::from(t.get(m))).collect();
+        for v in (0..n).rev() {
+            effort.spend(1 + level.len() as u64 / 8)?;
+            let mut up = Vec::with_capacity(level.len() / 2);
+            for pair in level.chunks_exact(2) {
+                up.push(self.mk(v as u32, pair[0], pair[1])?);
+            }
+            level = up;
+        }
+        Ok(BddRef(level[0]))
+    }
+
     /// The truth table of `f` over the variables `order` (at most
     /// [`crate::MAX_VARS`]; `order[0]` becomes the most significant), other
     /// variables at 0. Exact when `f` depends on no variable outside `order`.
@@ -619,6 +660,19 @@ impl Bdd {
 
     /// A sum of products of `f` (disjoint cubes, one per path to 1), over
     /// at most 64 inputs; fails when it would exceed `max_cubes`.
+    ///
+    /// ```
+    /// use implica_logic::{Bdd, Effort};
+    /// // x0 | x1 over 2 inputs: two paths to 1, x0 and !x0 & x1.
+    /// let mut bdd = Bdd::new(2);
+    /// let mut effort = Effort::new(1_000);
+    /// let (a, b) = (bdd.var(0).unwrap(), bdd.var(1).unwrap());
+    /// let f = bdd.or(a, b, &mut effort).unwrap();
+    /// let c = bdd.to_cover(f, 10).unwrap();
+    /// assert_eq!((c.len(), c.literals()), (2, 3));
+    /// assert_eq!(bdd.from_cover(&c, &mut effort).unwrap(), f);
+    /// assert!(bdd.to_cover(f, 1).is_err());
+    /// ```
     pub fn to_cover(&self, f: BddRef, max_cubes: usize) -> Result<Cover, Interrupted> {
         let order: Vec<usize> = (0..self.vars).collect();
         self.to_cover_over(f, &order, max_cubes)

@@ -126,6 +126,27 @@ pub struct Cover {
 }
 
 impl Cover {
+    /// The cover of a truth table's rows at 1, one full cube (minterm) each,
+    /// in row order: the table as a sum of products, unminimized.
+    ///
+    /// ```
+    /// use implica_logic::{Cover, TruthTable};
+    /// let t = TruthTable::from_minterms(3, &[1, 6]);
+    /// let c = Cover::from_truth_table(&t);
+    /// assert_eq!((c.len(), c.literals()), (2, 6));
+    /// assert_eq!(c.truth_table(), t);
+    /// ```
+    pub fn from_truth_table(t: &TruthTable) -> Cover {
+        Cover {
+            vars: t.vars(),
+            cubes: t
+                .minterms()
+                .into_iter()
+                .map(|m| Cube::minterm(t.vars(), m))
+                .collect(),
+        }
+    }
+
     /// Number of product terms.
     pub fn len(&self) -> usize {
         self.cubes.len()

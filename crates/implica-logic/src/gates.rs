@@ -308,6 +308,17 @@ impl GateNetwork {
     /// `!(x | ...)` and an inverter as `!x`. A gate read by several others
     /// is copied into each, so the tree can grow exponentially with the
     /// depth of sharing: more than `limit` nodes is an error.
+    ///
+    /// ```
+    /// use implica_logic::{BoolExpr, GateKind, GateNetwork};
+    /// // a & b as NAND gates: a NAND, then a NAND used as an inverter.
+    /// let e = BoolExpr::And(vec![BoolExpr::Var(0), BoolExpr::Var(1)]);
+    /// let net = GateNetwork::from_expr(&e, GateKind::Nand);
+    /// let back = net.to_expr(100).unwrap();
+    /// assert_eq!(back.truth_table(2), e.truth_table(2));
+    /// assert_eq!(back.to_text(&|i| ["a", "b"][i].into()), "!!(a & b)");
+    /// assert!(net.to_expr(1).is_err());
+    /// ```
     pub fn to_expr(&self, limit: usize) -> Result<BoolExpr, GateError> {
         let mut size: Vec<usize> = Vec::with_capacity(self.gates.len());
         let sig_size = |s: &Signal, size: &[usize]| match *s {

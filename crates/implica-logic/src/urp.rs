@@ -224,6 +224,22 @@ impl Cover {
 
     /// Whether the two covers agree on every input vector outside the
     /// don't-cares `dc`; on failure, an input vector where they differ.
+    ///
+    /// ```
+    /// use implica_logic::{Cover, Cube, Effort};
+    /// // Over 48 inputs: x0 & x1 | !x0 & x2 | x1 & x2 equals x0 & x1 | !x0 & x2
+    /// // (the consensus theorem, common practice), and x0 | x2 does not: it
+    /// // differs where x0 = 1 and x1 = 0.
+    /// let n = 48;
+    /// let lit = |i, p| Cube::literal(n, i, p);
+    /// let with = Cover { vars: n, cubes: vec![lit(0, true).and(&lit(1, true)), lit(0, false).and(&lit(2, true)), lit(1, true).and(&lit(2, true))] };
+    /// let without = Cover { vars: n, cubes: with.cubes[..2].to_vec() };
+    /// let mut effort = Effort::new(100_000);
+    /// assert_eq!(with.equivalent(&without, &Cover::zero(n), &mut effort).unwrap(), None);
+    /// let other = Cover { vars: n, cubes: vec![lit(0, true), lit(2, true)] };
+    /// let w = with.equivalent(&other, &Cover::zero(n), &mut effort).unwrap().unwrap();
+    /// assert_ne!(with.eval(&w), other.eval(&w));
+    /// ```
     pub fn equivalent(
         &self,
         other: &Cover,
@@ -248,6 +264,21 @@ impl Cover {
 
     /// Whether the function's value depends on variable `i`. On success, an
     /// input vector where flipping `i` flips the value.
+    ///
+    /// ```
+    /// use implica_logic::{Cover, Cube, Effort};
+    /// // x3 & x40 | x3 & !x40 over 50 inputs is x3: x40 is vacuous.
+    /// let n = 50;
+    /// let lit = |i, p| Cube::literal(n, i, p);
+    /// let f = Cover { vars: n, cubes: vec![lit(3, true).and(&lit(40, true)), lit(3, true).and(&lit(40, false))] };
+    /// let mut effort = Effort::new(100_000);
+    /// assert_eq!(f.depends_on(40, &mut effort).unwrap(), None);
+    /// let mut w = f.depends_on(3, &mut effort).unwrap().unwrap();
+    /// let before = f.eval(&w);
+    /// w[3] = !w[3];
+    /// assert_ne!(f.eval(&w), before);
+    /// assert_eq!(f.support(&mut effort).unwrap(), vec![3]);
+    /// ```
     pub fn depends_on(
         &self,
         i: usize,

@@ -6,7 +6,7 @@
 //! vectors, which shares no code with either).
 
 mod common;
-use common::{minterm_cover, random_cover, random_functions};
+use common::{random_cover, random_functions};
 use implica_logic::{
     Bdd, Budget, Cover, Cube, Effort, Interrupted, TruthTable, minimize_heuristic, minimize_sop,
 };
@@ -85,18 +85,28 @@ fn published_examples() {
     // d(9,14) has a minimum of 3 terms and 7 literals.
     let on = TruthTable::from_minterms(4, &[4, 8, 10, 11, 12, 15]);
     let dc = TruthTable::from_minterms(4, &[9, 14]);
-    let r = minimize_heuristic(&minterm_cover(&on), &minterm_cover(&dc), &mut big()).unwrap();
+    let r = minimize_heuristic(
+        &Cover::from_truth_table(&on),
+        &Cover::from_truth_table(&dc),
+        &mut big(),
+    )
+    .unwrap();
     assert_eq!(cost(&r.cover), (3, 7));
     // Full adder carry = AB + ACin + BCin (common practice): 3 terms, 6 literals.
     let carry = TruthTable::from_minterms(3, &[3, 5, 6, 7]);
-    let r = minimize_heuristic(&minterm_cover(&carry), &Cover::zero(3), &mut big()).unwrap();
+    let r = minimize_heuristic(
+        &Cover::from_truth_table(&carry),
+        &Cover::zero(3),
+        &mut big(),
+    )
+    .unwrap();
     assert_eq!(cost(&r.cover), (3, 6));
     // n-input parity cannot be made smaller than its 2^(n-1) minterms
     // (standard textbook result); the heuristic returns it unchanged.
     let odd: Vec<usize> = (0..256)
         .filter(|m: &usize| m.count_ones() % 2 == 1)
         .collect();
-    let parity = minterm_cover(&TruthTable::from_minterms(8, &odd));
+    let parity = Cover::from_truth_table(&TruthTable::from_minterms(8, &odd));
     let r = minimize_heuristic(&parity, &Cover::zero(8), &mut big()).unwrap();
     assert_eq!(cost(&r.cover), (128, 1024));
 }
@@ -239,7 +249,7 @@ fn a_budget_too_small_for_one_pass_still_gives_a_smaller_verified_cover() {
     // as they were, are the function, and smaller than the start.
     let (on, dc) = random_functions(12, 1, 0x9E37_79B9_7F4A_7C15 ^ 12).remove(0);
     let need = on.and_not(&dc);
-    let (start, free) = (minterm_cover(&need), minterm_cover(&dc));
+    let (start, free) = (Cover::from_truth_table(&need), Cover::from_truth_table(&dc));
     assert_eq!(start.len(), 1_505);
     let whole = minimize_heuristic(&start, &free, &mut big()).unwrap();
     assert!(whole.complete);

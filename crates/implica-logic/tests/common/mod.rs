@@ -68,15 +68,3 @@ pub fn random_functions(vars: usize, count: usize, seed: u64) -> Vec<(TruthTable
         })
         .collect()
 }
-
-/// A cover of the minterms of a truth table, one cube each.
-pub fn minterm_cover(t: &TruthTable) -> Cover {
-    Cover {
-        vars: t.vars(),
-        cubes: t
-            .minterms()
-            .into_iter()
-            .map(|m| Cube::minterm(t.vars(), m))
-            .collect(),
-    }
-}
