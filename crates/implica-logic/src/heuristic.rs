@@ -9,6 +9,7 @@
 //! when that check cannot finish, the input comes back unchanged.
 
 use crate::index::CubeIndex;
+use crate::minimize::isolated;
 use crate::urp::{mask, polarities, split_variable, zero_point};
 use crate::{Cover, Cube, Effort, Interrupted};
 
@@ -23,6 +24,34 @@ pub struct Heuristic {
     pub complete: bool,
     /// Passes of reduce, expand and irredundant that were run.
     pub passes: usize,
+    /// Whether no cover has fewer terms, or as many and fewer literals:
+    /// when the cover is empty, or has no more terms than `lower_bound`
+    /// (it is then those lone rows and nothing else).
+    pub proven_minimal: bool,
+    /// Fewest terms any sum of products of the function needs, as known:
+    /// the required rows with no neighbour (one input flipped) in the
+    /// function or the don't-cares, each a term of its own in every cover.
+    /// Counted on truth tables, when the function has at most
+    /// [`crate::MAX_VARS`] inputs and the tables of the input's cubes take
+    /// at most 2^24 words; 0 otherwise (nothing is known then).
+    pub lower_bound: usize,
+}
+
+/// Most table words spent on the certificate.
+const CERTIFICATE_WORDS: usize = 1 << 24;
+
+/// The certificate of a verified `cover` of `on` free on `dc`.
+fn certificate(cover: &Cover, on: &Cover, dc: &Cover) -> (bool, usize) {
+    let vars = cover.vars;
+    if cover.is_empty() {
+        return (true, 0);
+    }
+    let words = (1usize << vars.min(crate::MAX_VARS)).div_ceil(64);
+    if vars > crate::MAX_VARS || (on.len() + dc.len()).saturating_mul(words) > CERTIFICATE_WORDS {
+        return (false, 0);
+    }
+    let alone = isolated(&on.truth_table(), &dc.truth_table()).count_ones();
+    (cover.len() <= alone, alone)
 }
 
 /// Terms, then literals.
@@ -70,10 +99,15 @@ pub fn minimize_heuristic(
         "on-set and don't-cares over different inputs"
     );
     assert!(on.vars <= 64, "a cover has at most 64 inputs");
-    let unchanged = |complete| Heuristic {
-        cover: on.clone(),
-        complete,
-        passes: 0,
+    let unchanged = |complete| {
+        let (proven_minimal, lower_bound) = certificate(on, on, dc);
+        Heuristic {
+            cover: on.clone(),
+            complete,
+            passes: 0,
+            proven_minimal,
+            lower_bound,
+        }
     };
     let mut work = effort.part(effort.remaining() / 4 * 3);
     let outcome = improve(on, dc, &mut work);
@@ -95,11 +129,16 @@ pub fn minimize_heuristic(
     });
     effort.spend(check.used())?;
     match verdict {
-        Ok(None) => Ok(Heuristic {
-            cover: best,
-            complete,
-            passes,
-        }),
+        Ok(None) => {
+            let (proven_minimal, lower_bound) = certificate(&best, on, dc);
+            Ok(Heuristic {
+                cover: best,
+                complete,
+                passes,
+                proven_minimal,
+                lower_bound,
+            })
+        }
         Ok(Some(point)) => {
             debug_assert!(false, "heuristic result differs at {point:?}");
             Ok(unchanged(false))

@@ -61,6 +61,18 @@ fn small_functions_are_equivalent_and_no_smaller_than_the_exact_minimum() {
         assert_primes(&r.cover, &ton.or(&tdc), round);
         let exact = minimize_sop(&need, &tdc, &Budget::default()).unwrap();
         assert!(exact.proven_minimal);
+        // The heuristic's certificate never claims more than is true.
+        assert!(
+            r.lower_bound <= exact.cover.len(),
+            "round {round}: bound above the minimum"
+        );
+        if r.proven_minimal {
+            assert_eq!(
+                cost(&r.cover),
+                cost(&exact.cover),
+                "round {round}: proven, not minimal"
+            );
+        }
         assert!(
             cost(&exact.cover) <= cost(&r.cover),
             "round {round}: better than a proven minimum"
@@ -109,6 +121,18 @@ fn published_examples() {
     let parity = Cover::from_truth_table(&TruthTable::from_minterms(8, &odd));
     let r = minimize_heuristic(&parity, &Cover::zero(8), &mut big()).unwrap();
     assert_eq!(cost(&r.cover), (128, 1024));
+    // Every minterm of parity is alone (its neighbours are even), so the
+    // certificate proves it: 128 terms, at least 128 needed.
+    assert_eq!((r.proven_minimal, r.lower_bound), (true, 128));
+    // The Quine–McCluskey example's minterms all have neighbours: no bound
+    // beyond 0 is known, and nothing is proven.
+    let qm = minimize_heuristic(
+        &Cover::from_truth_table(&on),
+        &Cover::from_truth_table(&dc),
+        &mut big(),
+    )
+    .unwrap();
+    assert_eq!((qm.proven_minimal, qm.lower_bound), (false, 0));
 }
 
 #[test]
