@@ -171,6 +171,17 @@ pub fn check_logic(data: &[u8]) {
         h.cover.len() >= best.lower_bound,
         "the heuristic beat a proven bound"
     );
+    assert!(
+        h.lower_bound <= best.cover.len(),
+        "the heuristic's bound is above a cover"
+    );
+    if h.proven_minimal && best.proven_minimal {
+        assert_eq!(
+            (h.cover.len(), h.cover.literals()),
+            (best.cover.len(), best.cover.literals()),
+            "the heuristic's proof disagrees with the exact one"
+        );
+    }
 
     // Hazard-free cover: the same function, with no static-1 hazard left.
     let free = hazard_free_cover(&best.cover, on, dc, &Budget::default())
