@@ -87,14 +87,11 @@ fn overlapping_ranges_repeats_and_order_in_a_term_list() {
     assert_eq!(on, [2]);
 }
 
-#[test]
-fn a_long_term_list_over_eighteen_inputs_is_computed_within_the_default_budget() {
-    // About 98,000 single rows and 65,000 don't-cares over 18 inputs (a table
-    // exported by another program, say): the list is built by splitting
-    // the rows input by input, not row by row, so it fits the budget an
-    // editor gives a definition.
-    let n = 18;
-    let mut rng = implica_testkit::Rng(18);
+/// A random function of `n` inputs as one term list: each row on with
+/// probability 3/8, a don't-care with probability 1/4; the source, and the
+/// rows on and free.
+fn random_term_list(n: usize, seed: u64) -> (String, Vec<usize>, Vec<usize>) {
+    let mut rng = implica_testkit::Rng(seed);
     let (mut on, mut dc) = (Vec::new(), Vec::new());
     for m in 0..1usize << n {
         match rng.next() % 8 {
@@ -117,15 +114,31 @@ fn a_long_term_list_over_eighteen_inputs_is_computed_within_the_default_budget()
         list(&dc),
         names.join(", ")
     );
-    let (file, errors) = implica_syntax::parse(&src);
-    assert!(errors.is_empty(), "{errors:?}");
-    let model = Model::build(&file);
-    let mut f = Functions::compute(
-        &model,
+    (src, on, dc)
+}
+
+/// The functions of a model with a definition's default budget.
+fn default_functions(model: &Model) -> Functions {
+    Functions::compute(
+        model,
         implica_analysis::functions::DEFAULT_WORK_PER_DEFINITION,
         None,
     )
-    .unwrap();
+    .unwrap()
+}
+
+#[test]
+fn a_long_term_list_over_eighteen_inputs_is_computed_within_the_default_budget() {
+    // About 98,000 single rows and 65,000 don't-cares over 18 inputs (a table
+    // exported by another program, say): the list is built by splitting
+    // the rows input by input, not row by row, so it fits the budget an
+    // editor gives a definition.
+    let n = 18;
+    let (src, on, dc) = random_term_list(n, 18);
+    let (file, errors) = implica_syntax::parse(&src);
+    assert!(errors.is_empty(), "{errors:?}");
+    let model = Model::build(&file);
+    let mut f = default_functions(&model);
     let s = model.signal("y").unwrap();
     let local = f.local(s, &mut Effort::new(1_000_000)).unwrap().unwrap();
     assert_eq!(local.inputs.len(), n);
@@ -141,32 +154,10 @@ fn both_forms_past_the_exact_limit_each_get_a_share_of_the_work() {
     // so both forms go to the heuristic, which here uses all the work it
     // is given. The sum must leave the product its share (without it, the
     // product's first step ran out), and each must come back as a form.
-    let n = 17;
-    let mut rng = implica_testkit::Rng(17);
-    let (mut on, mut dc) = (Vec::new(), Vec::new());
-    for m in 0..1usize << n {
-        match rng.next() % 8 {
-            0..=2 => on.push(m.to_string()),
-            3 | 4 => dc.push(m.to_string()),
-            _ => {}
-        }
-    }
-    let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
-    let src = format!(
-        "input {}\noutput y\ny = on({}) dc({}) over ({})\n",
-        names.join(", "),
-        on.join(", "),
-        dc.join(", "),
-        names.join(", ")
-    );
+    let (src, _, _) = random_term_list(17, 17);
     let (file, _) = implica_syntax::parse(&src);
     let model = Model::build(&file);
-    let mut f = Functions::compute(
-        &model,
-        implica_analysis::functions::DEFAULT_WORK_PER_DEFINITION,
-        None,
-    )
-    .unwrap();
+    let mut f = default_functions(&model);
     let s = model.signal("y").unwrap();
     let budget = implica_logic::Budget::default();
     let mut effort = Effort::new(1_000_000);
