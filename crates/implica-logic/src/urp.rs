@@ -151,15 +151,23 @@ impl Cover {
     pub fn remove_contained(&mut self) {
         let vars = self.vars;
         self.cubes.retain(|c| !c.is_empty(vars));
-        // Larger cubes first, so a cube is only checked against earlier ones.
+        // Larger cubes first, so a cube is only checked against earlier ones,
+        // and of those only the ones that meet it (a cube containing it
+        // does), found by an index rather than a scan.
         self.cubes.sort_by_key(|c| c.literals(vars));
-        let mut kept: Vec<Cube> = Vec::with_capacity(self.cubes.len());
-        for &c in &self.cubes {
-            if !kept.iter().any(|k| k.contains(&c)) {
-                kept.push(c);
-            }
+        let index = CubeIndex::new(&self.cubes, vars);
+        let mut keep = vec![true; self.cubes.len()];
+        let mut meeting = Vec::new();
+        for (i, c) in self.cubes.iter().enumerate() {
+            index.meeting(c, &mut meeting);
+            keep[i] = !meeting
+                .iter()
+                .map(|&j| j as usize)
+                .take_while(|&j| j < i)
+                .any(|j| keep[j] && self.cubes[j].contains(c));
         }
-        self.cubes = kept;
+        let mut keep = keep.into_iter();
+        self.cubes.retain(|_| keep.next().unwrap_or(false));
     }
 
     /// Whether the cover is 1 everywhere.

@@ -216,3 +216,47 @@ fn empty_and_universal_covers() {
     assert_eq!(Cover::zero(0).find_zero(&mut e).unwrap(), Some(vec![]));
     assert_eq!(TruthTable::one(5), Cover::one(5).truth_table());
 }
+
+#[test]
+fn single_cube_containment_keeps_the_first_of_equal_cubes_and_drops_the_contained() {
+    // Against the definition, cube by cube: larger cubes first (stable),
+    // each kept unless an earlier kept cube contains it; empty cubes go.
+    let mut rng = implica_testkit::Rng(0xC0_11A);
+    for round in 0..300 {
+        let vars = 1 + round % 40;
+        let cubes: Vec<Cube> = (0..round % 600)
+            .map(|_| {
+                let mut c = Cube::universe(vars);
+                for i in 0..vars {
+                    match rng.next() % 5 {
+                        0 => c = c.and(&Cube::literal(vars, i, true)),
+                        1 => c = c.and(&Cube::literal(vars, i, false)),
+                        _ => {}
+                    }
+                }
+                // A few empty cubes and many repeats.
+                if rng.next().is_multiple_of(50) {
+                    c = c
+                        .and(&Cube::literal(vars, 0, true))
+                        .and(&Cube::literal(vars, 0, false));
+                }
+                c
+            })
+            .collect();
+        let mut want: Vec<Cube> = cubes
+            .iter()
+            .copied()
+            .filter(|c| !c.is_empty(vars))
+            .collect();
+        want.sort_by_key(|c| c.literals(vars));
+        let mut kept: Vec<Cube> = Vec::new();
+        for c in want {
+            if !kept.iter().any(|k| k.contains(&c)) {
+                kept.push(c);
+            }
+        }
+        let mut got = Cover { vars, cubes };
+        got.remove_contained();
+        assert_eq!(got.cubes, kept, "round {round}");
+    }
+}
