@@ -36,11 +36,7 @@ fn required(on: &TruthTable, dc: &TruthTable) -> TruthTable {
 /// all the other terms; removing them one at a time, rechecking after each,
 /// keeps the function.
 pub fn redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<usize> {
-    let c = Coverage::of(cover);
-    let need = required(&c.once, dc);
-    (0..cover.len())
-        .filter(|&i| c.tables[i].and(&need).and_not(&c.twice).is_zero())
-        .collect()
+    Coverage::of(cover).redundant(dc)
 }
 
 /// Each term's truth table, and the rows at least one term covers and at
@@ -66,6 +62,14 @@ impl Coverage {
             once,
             twice,
         }
+    }
+
+    /// The terms that cover no required row alone.
+    fn redundant(&self, dc: &TruthTable) -> Vec<usize> {
+        let need = required(&self.once, dc);
+        (0..self.tables.len())
+            .filter(|&i| self.tables[i].and(&need).and_not(&self.twice).is_zero())
+            .collect()
     }
 }
 
@@ -114,14 +118,9 @@ pub enum Redundancy {
 /// ```
 pub fn classify_redundant_terms(cover: &Cover, dc: &TruthTable) -> Vec<(usize, Redundancy)> {
     let coverage = Coverage::of(cover);
-    let need = required(&coverage.once, dc);
-    (0..cover.len())
-        .filter(|&i| {
-            coverage.tables[i]
-                .and(&need)
-                .and_not(&coverage.twice)
-                .is_zero()
-        })
+    coverage
+        .redundant(dc)
+        .into_iter()
         .map(|i| {
             let c = cover.cubes[i];
             let own = &coverage.tables[i];

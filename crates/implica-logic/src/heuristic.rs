@@ -452,10 +452,9 @@ impl Near {
     }
 
     /// Into `scratch.cofactors`: the cofactors by `c` of the cubes `j` of
-    /// `cubes` with `take(j)`, then of the don't-cares, each in cover
-    /// order. `cubes` may have been shrunk since the index was made: a
-    /// cube shrunk keeps the literals it had, so it stays where it was
-    /// indexed. Counts one unit per eight cubes visited.
+    /// `cubes` (as indexed, or shrunk since) with `take(j)`, then of the
+    /// don't-cares, each in cover order. Counts one unit per eight cubes
+    /// visited.
     fn cofactors(
         &self,
         cubes: &[Cube],
@@ -465,26 +464,14 @@ impl Near {
         scratch: &mut Scratch,
         effort: &mut Effort,
     ) -> Result<(), Interrupted> {
-        let vars = dc.vars;
-        scratch.cofactors.clear();
-        self.cubes.meeting(c, &mut scratch.meeting);
-        let mut visited = scratch.meeting.len();
-        scratch.cofactors.extend(
-            scratch
-                .meeting
-                .iter()
-                .map(|&j| j as usize)
-                .filter(|&j| take(j))
-                .filter_map(|j| cubes[j].cofactor(c, vars)),
-        );
-        self.dc.meeting(c, &mut scratch.meeting);
-        visited += scratch.meeting.len();
-        scratch.cofactors.extend(
-            scratch
-                .meeting
-                .iter()
-                .filter_map(|&j| dc.cubes[j as usize].cofactor(c, vars)),
-        );
+        let Scratch { meeting, cofactors } = scratch;
+        cofactors.clear();
+        let visited = self
+            .cubes
+            .cofactors(cubes, c, dc.vars, take, meeting, cofactors)
+            + self
+                .dc
+                .cofactors(&dc.cubes, c, dc.vars, |_| true, meeting, cofactors);
         effort.spend(1 + visited as u64 / 8)
     }
 }

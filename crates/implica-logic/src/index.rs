@@ -101,6 +101,33 @@ impl CubeIndex {
     }
 }
 
+impl CubeIndex {
+    /// Appends to `out` the cofactors by `c` of the cubes `cubes[j]` (the
+    /// cubes indexed, or those cubes shrunk since: a cube shrunk keeps the
+    /// literals it had, so it stays where it was indexed) that meet it and
+    /// have `take(j)`, in cover order; `meeting` is scratch. Returns how
+    /// many cubes were visited, for the caller's budget.
+    pub(crate) fn cofactors(
+        &self,
+        cubes: &[Cube],
+        c: &Cube,
+        vars: usize,
+        take: impl Fn(usize) -> bool,
+        meeting: &mut Vec<u32>,
+        out: &mut Vec<Cube>,
+    ) -> usize {
+        self.meeting(c, meeting);
+        out.extend(
+            meeting
+                .iter()
+                .map(|&j| j as usize)
+                .filter(|&j| take(j))
+                .filter_map(|j| cubes[j].cofactor(c, vars)),
+        );
+        meeting.len()
+    }
+}
+
 /// Calls `f` with every key that agrees with `fixed` outside `free`.
 fn each_key(fixed: usize, free: usize, mut f: impl FnMut(usize)) {
     let mut sub = free;

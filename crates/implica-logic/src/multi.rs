@@ -243,18 +243,15 @@ fn multi(
         }
     }
     columns.sort();
+    // Every solution has at least the distinct terms of the output that
+    // needs the most.
+    let separate_bound = separate.iter().map(|s| s.lower_bound).max().unwrap_or(0);
     if cut {
-        // Past the work: the separate covers put together, with the bound
-        // of the output that needs the most terms.
+        // Past the work: the separate covers put together.
         let mut result = pooled(vars, &separate, &need, &care);
         result.primes = columns.len();
         result.proven_minimal = false;
-        result.lower_bound = separate
-            .iter()
-            .map(|s| s.lower_bound)
-            .max()
-            .unwrap_or(0)
-            .min(result.terms.len());
+        result.lower_bound = separate_bound.min(result.terms.len());
         return Ok(result);
     }
 
@@ -334,12 +331,7 @@ fn multi(
         .map(|&c| columns[c].to_cube(vars))
         .collect();
     let mut result = assemble(vars, chosen, &need, &care);
-    let lower = separate
-        .iter()
-        .map(|s| s.lower_bound)
-        .max()
-        .unwrap_or(0)
-        .max(solution.lower_bound_terms);
+    let lower = separate_bound.max(solution.lower_bound_terms);
     result.proven_minimal = solution.proven;
     result.primes = columns.len();
     // A search cut short may do worse than the separate covers put

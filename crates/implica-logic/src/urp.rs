@@ -215,14 +215,9 @@ impl Cover {
             if c.is_empty(vars) {
                 continue;
             }
-            index.meeting(c, &mut meeting);
-            effort.spend(1 + meeting.len() as u64 / 8)?;
             f.clear();
-            f.extend(
-                meeting
-                    .iter()
-                    .filter_map(|&p| self.cubes[p as usize].cofactor(c, vars)),
-            );
+            let visited = index.cofactors(&self.cubes, c, vars, |_| true, &mut meeting, &mut f);
+            effort.spend(1 + visited as u64 / 8)?;
             if let Some(w) = zero_point(&f, vars, effort)? {
                 return Ok(w.and(c).point(vars));
             }
