@@ -1,6 +1,8 @@
 //! Redundancy and hazard analyses, checked against standard identities and
 //! a published hazard example.
 
+mod common;
+
 use implica_logic::{
     Budget, Cover, Cube, Redundancy, TruthTable, classify_redundant_terms, hazard_free_cover,
     minimize_sop, redundant_literals, redundant_terms, static0_hazards, static1_hazards,
@@ -247,17 +249,7 @@ fn the_analyses_agree_with_their_definitions_evaluated_row_by_row() {
     for round in 0..400 {
         let vars = 2 + round % 7;
         let cubes = (0..1 + round % 14)
-            .map(|_| {
-                let mut c = Cube::universe(vars);
-                for i in 0..vars {
-                    match rng.next() % 3 {
-                        0 => c = c.and(&Cube::literal(vars, i, true)),
-                        1 => c = c.and(&Cube::literal(vars, i, false)),
-                        _ => {}
-                    }
-                }
-                c
-            })
+            .map(|_| common::random_cube_each(&mut rng, vars, 3))
             .collect();
         let f = Cover { vars, cubes };
         let mut dc = TruthTable::zero(vars);

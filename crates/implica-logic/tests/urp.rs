@@ -3,6 +3,8 @@
 //! of the same covers, which are computed minterm by minterm and share no
 //! code with the recursive cover algorithms.
 
+mod common;
+
 use implica_logic::{Cover, Cube, Effort, Interrupted, TruthTable};
 use proptest::prelude::*;
 
@@ -226,14 +228,7 @@ fn single_cube_containment_keeps_the_first_of_equal_cubes_and_drops_the_containe
         let vars = 1 + round % 40;
         let cubes: Vec<Cube> = (0..round % 600)
             .map(|_| {
-                let mut c = Cube::universe(vars);
-                for i in 0..vars {
-                    match rng.next() % 5 {
-                        0 => c = c.and(&Cube::literal(vars, i, true)),
-                        1 => c = c.and(&Cube::literal(vars, i, false)),
-                        _ => {}
-                    }
-                }
+                let mut c = common::random_cube_each(&mut rng, vars, 5);
                 // A few empty cubes and many repeats.
                 if rng.next().is_multiple_of(50) {
                     c = c

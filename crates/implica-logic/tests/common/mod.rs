@@ -40,6 +40,20 @@ pub fn random_cube(rng: &mut Rng, vars: usize, literals: usize) -> Cube {
     c
 }
 
+/// A random cube in which each variable is, with probability `1/one_in`
+/// each, a positive or a negative literal, and free otherwise.
+pub fn random_cube_each(rng: &mut Rng, vars: usize, one_in: u64) -> Cube {
+    let mut c = Cube::universe(vars);
+    for i in 0..vars {
+        match rng.next() % one_in {
+            0 => c = c.and(&Cube::literal(vars, i, true)),
+            1 => c = c.and(&Cube::literal(vars, i, false)),
+            _ => {}
+        }
+    }
+    c
+}
+
 /// `cubes` random cubes of `literals` literals each.
 pub fn random_cover(rng: &mut Rng, vars: usize, cubes: usize, literals: usize) -> Cover {
     Cover {
